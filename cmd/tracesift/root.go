@@ -1,0 +1,137 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"runtime/debug"
+	"strings"
+
+	"github.com/spf13/cobra"
+)
+
+// version is the tool's release; builds from a checkout append the VCS
+// revision when the Go toolchain recorded one.
+const version = "0.1.0"
+
+// Exit statuses: 0 all good, 1 some inputs failed, 2 usage error.
+const (
+	exitOK      = 0
+	exitPartial = 1
+	exitUsage   = 2
+)
+
+// env carries the streams a command reads and writes, so tests can run the
+// whole command line against buffers.
+type env struct {
+	stdin  io.Reader
+	stdout io.Writer
+	stderr io.Writer
+}
+
+// commands holds the constructors of the subcommands; each command file adds
+// its own in init.
+var commands []func(*env) *cobra.Command
+
+func addCommand(f func(*env) *cobra.Command) { commands = append(commands, f) }
+
+// usageError marks an error caused by how the command was called.
+type usageError struct{ err error }
+
+func (u usageError) Error() string { return u.err.Error() }
+func (u usageError) Unwrap() error { return u.err }
+
+func usagef(format string, a ...any) error { return usageError{fmt.Errorf(format, a...)} }
+
+// errSomeFailed reports that some inputs of a batch failed after the others
+// were processed; the failures were already reported on stderr.
+var errSomeFailed = errors.New("some inputs failed")
+
+func newRootCmd(e *env) *cobra.Command {
+	root := &cobra.Command{
+		Use:   "tracesift",
+		Short: "Screen fluctuation traces for deterministic chaos versus noise",
+		Long: `tracesift decides whether a measured fluctuation trace (a device current,
+a sensor read-out) carries low-dimensional deterministic dynamics (chaotic),
+is noise (stochastic) or is periodic/quasi-periodic (regular), using
+visibility-graph metrics together with classical nonlinear, ordinal and
+scaling measures, and checks the method on reference systems whose
+invariants are published.
+
+The verdict is a screening aid, not a device qualification result: defer to
+your laboratory's qualification procedures and the applicable reliability
+standards.`,
+		Version:       versionString(),
+		SilenceUsage:  true,
+		SilenceErrors: true,
+	}
+	root.SetIn(e.stdin)
+	root.SetOut(e.stdout)
+	root.SetErr(e.stderr)
+	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
+		return usageError{fmt.Errorf("%w (see '%s --help')", err, c.CommandPath())}
+	})
+	for _, f := range commands {
+		root.AddCommand(f(e))
+	}
+	return root
+}
+
+func versionString() string {
+	v := version
+	if info, ok := debug.ReadBuildInfo(); ok {
+		for _, s := range info.Settings {
+			if s.Key == "vcs.revision" && len(s.Value) >= 12 {
+				v += " (" + s.Value[:12] + ")"
+			}
+		}
+	}
+	return v
+}
+
+// run executes the command line and returns the exit status.
+func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	e := &env{stdin: stdin, stdout: stdout, stderr: stderr}
+	root := newRootCmd(e)
+	root.SetArgs(args)
+	err := root.Execute()
+	switch {
+	case err == nil:
+		return exitOK
+	case errors.Is(err, errSomeFailed):
+		return exitPartial
+	}
+	fmt.Fprintf(stderr, "tracesift: %s\n", oneLine(err.Error()))
+	var u usageError
+	if errors.As(err, &u) || isCobraUsage(err) {
+		return exitUsage
+	}
+	return exitPartial
+}
+
+// isCobraUsage recognises the argument errors cobra itself produces.
+func isCobraUsage(err error) bool {
+	msg := err.Error()
+	for _, p := range []string{"unknown command", "accepts ", "requires at least", "requires at most", "unknown flag", "unknown shorthand", "invalid argument", "flag needs an argument", "if any flags in the group"} {
+		if strings.Contains(msg, p) {
+			return true
+		}
+	}
+	return false
+}
+
+// oneLine folds an error message onto one line.
+func oneLine(s string) string {
+	return strings.Join(strings.Fields(strings.ReplaceAll(s, "\n", " ")), " ")
+}
+
+// stderrIsTerminal reports whether progress bars should be drawn.
+func stderrIsTerminal(w io.Writer) bool {
+	f, ok := w.(*os.File)
+	if !ok {
+		return false
+	}
+	st, err := f.Stat()
+	return err == nil && st.Mode()&os.ModeCharDevice != 0
+}

@@ -1,0 +1,49 @@
+// Package atomicfile writes output files so that a reader never sees a
+// half-written one: the content goes to a temporary file in the destination
+// directory, which is synced and renamed over the destination only when the
+// writer function succeeds.
+package atomicfile
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+)
+
+// Write creates path by calling fill with a writer on a temporary file in the
+// same directory, then renaming it into place. If fill or any file operation
+// fails, the temporary file is removed and path is left untouched.
+// The path "-" writes to stdout directly.
+func Write(path string, fill func(w io.Writer) error) (err error) {
+	if path == "-" {
+		return fill(os.Stdout)
+	}
+	dir := filepath.Dir(path)
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".*.tmp")
+	if err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	defer func() {
+		if err != nil {
+			tmp.Close()
+			os.Remove(tmp.Name())
+		}
+	}()
+	if err = fill(tmp); err != nil {
+		return err
+	}
+	if err = tmp.Sync(); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	if err = tmp.Close(); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	if err = os.Chmod(tmp.Name(), 0o644); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	if err = os.Rename(tmp.Name(), path); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	return nil
+}
