@@ -1,0 +1,116 @@
+package trace
+
+import (
+	"errors"
+	"fmt"
+	"strconv"
+	"strings"
+)
+
+// Sentinel errors. Every error returned by Read and ReadFile for bad input
+// is an *Error whose Err field is one of these (or, for failures of the
+// underlying reader or of gzip, the error that reader returned), so callers
+// tell cases apart with errors.Is(err, trace.ErrRagged) and so on.
+var (
+	// ErrEmpty: the input holds no data at all (empty, or only blank and
+	// comment lines).
+	ErrEmpty = errors.New("no data")
+	// ErrHeaderOnly: the input has a header (a line of names) but no
+	// numeric rows.
+	ErrHeaderOnly = errors.New("header but no data rows")
+	// ErrNotNumeric: a field that must hold a number does not parse as one,
+	// or no line of the input is numeric, or the input looks binary.
+	ErrNotNumeric = errors.New("not a number")
+	// ErrNonFinite: a value is NaN, ±Inf, out of float64 range or missing
+	// (empty, NA, N/A, null) and the NaN policy is NaNReject, or every
+	// value is non-finite.
+	ErrNonFinite = errors.New("non-finite or missing value")
+	// ErrConstant: all values are equal, so the trace carries no
+	// fluctuation to analyse.
+	ErrConstant = errors.New("constant series")
+	// ErrTooShort: fewer samples than Options.MinLength.
+	ErrTooShort = errors.New("too short")
+	// ErrRagged: a data row has a different number of fields than the
+	// table.
+	ErrRagged = errors.New("ragged row")
+	// ErrTooLarge: more samples than Options.MaxSamples.
+	ErrTooLarge = errors.New("too large")
+	// ErrTruncated: raw binary input whose length is not a whole number
+	// of samples, or a gzip stream that ends early.
+	ErrTruncated = errors.New("truncated")
+	// ErrNoColumn: Options.Column names no column of the table; the
+	// message lists the available columns.
+	ErrNoColumn = errors.New("no such column")
+	// ErrLineTooLong: a text line is longer than MaxLineBytes.
+	ErrLineTooLong = errors.New("line too long")
+	// ErrOption: an Options field holds a value outside its documented
+	// range.
+	ErrOption = errors.New("invalid option")
+)
+
+// Error is a read failure located in the input. Its message is one line:
+//
+//	FILE[ line N | sample N][, column C[ ("NAME")]]: REASON[: DETAIL]
+//
+// for example
+//
+//	demo.csv line 17, column 2 ("Id"): not a number: "1.2.3"
+//
+// REASON is the text of Err. Line numbers count physical lines of the
+// (decompressed) text from 1, including comment and blank lines; columns
+// count from 1; samples of raw binary input count from 1.
+type Error struct {
+	File   string // source name: the path, "stdin", or Options.Name
+	Line   int    // 1-based text line, 0 when the error is not tied to a line
+	Sample int    // 1-based sample of raw binary input, 0 otherwise
+	Column int    // 1-based column, 0 when the error is not tied to a column
+	Name   string // header name of Column, "" when there is no header
+	Err    error  // one of the Err* sentinels, or an I/O or gzip error
+	Detail string // the offending field, counts or a hint; may be ""
+}
+
+// Error renders the one-line message described on the type.
+func (e *Error) Error() string {
+	var b strings.Builder
+	b.WriteString(e.File)
+	switch {
+	case e.Line > 0:
+		b.WriteString(" line ")
+		b.WriteString(strconv.Itoa(e.Line))
+	case e.Sample > 0:
+		b.WriteString(" sample ")
+		b.WriteString(strconv.Itoa(e.Sample))
+	}
+	if e.Column > 0 {
+		if e.Line > 0 || e.Sample > 0 {
+			b.WriteByte(',')
+		}
+		b.WriteString(" column ")
+		b.WriteString(strconv.Itoa(e.Column))
+		if e.Name != "" {
+			fmt.Fprintf(&b, " (%q)", e.Name)
+		}
+	}
+	b.WriteString(": ")
+	if e.Err != nil {
+		b.WriteString(e.Err.Error())
+	}
+	if e.Detail != "" {
+		b.WriteString(": ")
+		b.WriteString(e.Detail)
+	}
+	return b.String()
+}
+
+// Unwrap returns Err, so errors.Is and errors.As see the sentinel.
+func (e *Error) Unwrap() error { return e.Err }
+
+// quoteField quotes a field for an error message, shortening long ones so
+// the message stays one readable line.
+func quoteField(b []byte) string {
+	const max = 40
+	if len(b) > max {
+		return strconv.Quote(string(b[:max])) + "..."
+	}
+	return strconv.Quote(string(b))
+}
