@@ -12,6 +12,17 @@ import (
 // a few dozen iterations).
 const mapTransient = 1000
 
+// Label rules of the maps average the tangent-map exponent over
+// mapLyapIters iterations after mapLyapTransient, from a fixed start, and
+// call the orbit chaotic above mapChaosThreshold per iteration. The
+// threshold sits well above the O(1/iters) bias of a periodic orbit's
+// exponent and well below the exponents of the chaotic defaults (≥ 0.18).
+const (
+	mapLyapTransient  = 10000
+	mapLyapIters      = 100000
+	mapChaosThreshold = 0.01
+)
+
 // Logistic is the logistic map x' = r·x·(1−x) on [0, 1]. It is chaotic at
 // r = 4, where its largest Lyapunov exponent is ln 2 and its invariant density
 // is 1/(π√(x(1−x))) (Ulam & von Neumann 1947), and periodic in windows such
@@ -35,8 +46,9 @@ func (m Logistic) Generate(n int, rng *rand.Rand) ([]float64, error) {
 		x = m.R * x * (1 - x)
 		// In floating point an orbit at r = 4 can land exactly on the
 		// repelling fixed point 0 (via x = 0.5 → 1 → 0) and stay there;
-		// nudge it back onto the attractor with a fresh draw.
-		if x <= 0 || x >= 1 {
+		// nudge it back onto the attractor with a fresh draw. For r ≤ 1
+		// the fixed point 0 is the attractor and is kept.
+		if m.R > 1 && (x <= 0 || x >= 1) {
 			x = 0.05 + 0.9*rng.Float64()
 		}
 		if i >= 0 {
@@ -49,10 +61,11 @@ func (m Logistic) Generate(n int, rng *rand.Rand) ([]float64, error) {
 // LogisticLyapunov returns the largest Lyapunov exponent of the logistic map
 // at r, the orbit average of ln|r(1−2x)|, from a fixed start and iters
 // iterations after a transient. It is the labelling rule of the registry:
-// positive means chaotic, otherwise the orbit is periodic (regular).
+// above 0.01 per iteration the map is chaotic, otherwise the orbit is
+// periodic (regular).
 func LogisticLyapunov(r float64, iters int) float64 {
 	x := 0.3141592653589793
-	for i := 0; i < 10*mapTransient; i++ {
+	for i := 0; i < mapLyapTransient; i++ {
 		x = r * x * (1 - x)
 	}
 	var sum float64
@@ -74,64 +87,106 @@ type Henon struct {
 	A, B float64
 }
 
+func (m Henon) dim() int { return 2 }
+
+func (m Henon) next(dst, v []float64) {
+	dst[0] = 1 - m.A*v[0]*v[0] + v[1]
+	dst[1] = m.B * v[0]
+}
+
+func (m Henon) jacobian(j, v []float64) {
+	j[0], j[1] = -2*m.A*v[0], 1
+	j[2], j[3] = m.B, 0
+}
+
 // Generate returns n values of x after the transient, started near the
 // attractor at a random point of (−0.1, 0.1)².
 func (m Henon) Generate(n int, rng *rand.Rand) ([]float64, error) {
+	v := []float64{0.2*rng.Float64() - 0.1, 0.2*rng.Float64() - 0.1}
+	return iterateMap("henon", m, v, n, 0)
+}
+
+// iterateMap iterates m from v (modified), discards mapTransient
+// iterations and records coordinate obs of the next n states.
+func iterateMap(name string, m mapping, v []float64, n int, obs int) ([]float64, error) {
 	if err := checkN(n); err != nil {
 		return nil, err
 	}
-	x, y := 0.2*rng.Float64()-0.1, 0.2*rng.Float64()-0.1
+	w := make([]float64, len(v))
 	out := make([]float64, n)
 	for i := -mapTransient; i < n; i++ {
-		x, y = 1-m.A*x*x+y, m.B*x
-		if math.IsInf(x, 0) || math.IsNaN(x) || math.Abs(x) > 1e6 {
-			return nil, fmt.Errorf("henon: orbit escaped to infinity at a = %g, b = %g", m.A, m.B)
+		m.next(w, v)
+		v, w = w, v
+		if !finite(v) {
+			return nil, fmt.Errorf("%s: %w: the orbit escaped to infinity", name, ErrDiverged)
 		}
 		if i >= 0 {
-			out[i] = x
+			out[i] = v[obs]
 		}
 	}
 	return out, nil
 }
 
+// mapLyap returns the label-rule spectrum of m from x0.
+func mapLyap(m mapping, x0 ...float64) (Spectrum, error) {
+	return mapSpectrum(m, x0, mapLyapTransient, mapLyapIters, m.dim())
+}
+
+// logisticRule is the label text shared by the logistic entries.
+const logisticRule = " Label: chaotic when the map's Lyapunov exponent at r, the average of ln|r(1−2x)| over 10^5 iterations from x0 = 0.314159 after 10^4 of transient, exceeds 0.01 per iteration; otherwise regular. Below r = 3 the orbit settles on a fixed point (a constant series), so r starts at 3."
+
 func init() {
+	logisticLyap := func(p map[string]float64) (Spectrum, error) {
+		return Spectrum{Exponents: []float64{LogisticLyapunov(p["r"], mapLyapIters)}, Unit: "per iteration", Span: mapLyapIters}, nil
+	}
+	build := func(p map[string]float64) (Generator, float64, error) {
+		return Logistic{R: p["r"]}, 1, nil
+	}
 	register(&System{
-		Name:  "logistic",
-		Title: "logistic map x' = r x (1 - x)",
-		Doc:   "Chaotic at r = 4; periodic windows at r = 3.5 (period 4) and r = 3.83 (period 3). Label: chaotic when the map's Lyapunov exponent at r, computed from the equation over 10^5 iterations, exceeds 0.01; otherwise regular.",
-		Params: []Param{
-			{Name: "r", Default: 4, Min: 0.01, Max: 4, Doc: "growth parameter"},
-		},
+		Name:   "logistic",
+		Title:  "logistic map x' = r x (1 - x)",
+		Doc:    "Chaotic at r = 4; periodic windows at r = 3.5 (period 4) and r = 3.83 (period 3)." + logisticRule,
+		Params: []Param{{Name: "r", Default: 4, Min: 3, Max: 4, Doc: "growth parameter"}},
 		Invariants: []Invariant{
 			{Name: "lyap_max", Value: math.Ln2, Unit: "per iteration", Source: "analytic (conjugacy to the tent map), r = 4"},
 			{Name: "invariant_density", Value: math.NaN(), Unit: "1/(π√(x(1−x)))", Source: "Ulam & von Neumann (1947), analytic, r = 4"},
 		},
-		TimeAxis: "iteration",
-		label: func(p map[string]float64) Class {
-			if LogisticLyapunov(p["r"], 100000) > 0.01 {
-				return Chaotic
-			}
-			return Regular
-		},
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return Logistic{R: p["r"]}, 1, nil
-		},
+		TimeAxis:     AxisIteration,
+		DefaultClass: Chaotic,
+		lyap:         logisticLyap,
+		threshold:    mapChaosThreshold,
+		build:        build,
+	})
+	register(&System{
+		Name:         "logistic-periodic",
+		Title:        "logistic map in its period-3 window (r = 3.83)",
+		Doc:          "The logistic entry preset to r = 3.83, inside the period-3 window; r = 3.5 gives period 4. Same equation and label rule as \"logistic\", so r = 4 here is chaotic." + logisticRule,
+		Params:       []Param{{Name: "r", Default: 3.83, Min: 3, Max: 4, Doc: "growth parameter"}},
+		TimeAxis:     AxisIteration,
+		DefaultClass: Regular,
+		lyap:         logisticLyap,
+		threshold:    mapChaosThreshold,
+		build:        build,
 	})
 	register(&System{
 		Name:  "henon",
 		Title: "Hénon map x' = 1 - a x² + y, y' = b x (observed x)",
-		Doc:   "Chaotic at the classical a = 1.4, b = 0.3.",
+		Doc:   "Chaotic at the classical a = 1.4, b = 0.3. Below a ≈ 0.37 (b = 0.3) the orbit settles on a fixed point, so a starts at 0.4; some (a, b) let the orbit escape, which Generate and Class report as ErrDiverged. Label: chaotic when λ1 from the tangent map (orbit from (0, 0), 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
 		Params: []Param{
-			{Name: "a", Default: 1.4, Min: 0, Max: 1.42, Doc: "nonlinearity"},
-			{Name: "b", Default: 0.3, Min: -1, Max: 1, Doc: "contraction (Jacobian determinant is -b)"},
+			{Name: "a", Default: 1.4, Min: 0.4, Max: 1.42, Doc: "nonlinearity"},
+			{Name: "b", Default: 0.3, Min: 0.05, Max: 0.31, Doc: "contraction (Jacobian determinant is -b)"},
 		},
 		Invariants: []Invariant{
 			{Name: "lyap_max", Value: 0.41922, Unit: "per iteration", Source: "Sprott, Chaos and Time-Series Analysis (2003), appendix (memory)"},
 			{Name: "lyap_sum", Value: math.Log(0.3), Unit: "per iteration", Source: "analytic: ln|det J| = ln b"},
 			{Name: "corr_dim", Value: 1.21, Unit: "", Source: "Grassberger & Procaccia, Physica D 9 (1983) 189 (memory)"},
 		},
-		TimeAxis: "iteration",
-		label:    fixed(Chaotic),
+		TimeAxis:     AxisIteration,
+		DefaultClass: Chaotic,
+		lyap: func(p map[string]float64) (Spectrum, error) {
+			return mapLyap(Henon{A: p["a"], B: p["b"]}, 0, 0)
+		},
+		threshold: mapChaosThreshold,
 		build: func(p map[string]float64) (Generator, float64, error) {
 			return Henon{A: p["a"], B: p["b"]}, 1, nil
 		},

@@ -82,8 +82,11 @@ func (o OU) Generate(n int, rng *rand.Rand) ([]float64, error) {
 // so the noise standard deviation is sd(x)·10^(−SNR/20). x is not modified.
 // An infinite SNR returns a copy of x.
 func AddNoise(x []float64, snrDB float64, rng *rand.Rand) ([]float64, error) {
-	if math.IsNaN(snrDB) {
-		return nil, fmt.Errorf("generators: SNR is NaN")
+	if math.IsNaN(snrDB) || math.IsInf(snrDB, -1) {
+		return nil, fmt.Errorf("generators: SNR = %g dB, want a number or +Inf", snrDB)
+	}
+	if len(x) == 0 {
+		return nil, fmt.Errorf("generators: cannot add noise to an empty series")
 	}
 	out := make([]float64, len(x))
 	copy(out, x)
@@ -111,23 +114,36 @@ func AddNoise(x []float64, snrDB float64, rng *rand.Rand) ([]float64, error) {
 
 func init() {
 	register(&System{
-		Name:     "white",
-		Title:    "white Gaussian noise",
-		Doc:      "Independent N(0, sigma²) samples.",
-		Params:   []Param{{Name: "sigma", Default: 1, Min: 1e-12, Max: 1e12, Doc: "standard deviation"}},
-		TimeAxis: "iteration",
-		label:    fixed(Stochastic),
+		Name:   "white",
+		Title:  "white Gaussian noise",
+		Doc:    "Independent N(0, sigma²) samples. Label: stochastic.",
+		Params: []Param{{Name: "sigma", Default: 1, Min: 1e-12, Max: 1e12, Doc: "standard deviation"}},
+		Invariants: []Invariant{
+			{Name: "hvg_mean_degree", Value: 4, Unit: "", Source: "Luque et al., Phys. Rev. E 80 (2009) 046103: any continuous i.i.d. series"},
+			{Name: "hvg_lambda", Value: math.Log(1.5), Unit: "", Source: "Luque et al. (2009): any continuous i.i.d. series"},
+			{Name: "perm_entropy", Value: 1, Unit: "normalised", Source: "Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102: i.i.d."},
+			{Name: "sample_entropy", Value: 2.185, Unit: "m = 2, r = 0.2 sd", Source: "Richman & Moorman, Am. J. Physiol. 278 (2000) H2039; value derived: -ln(2Φ(0.2/√2) - 1)"},
+			{Name: "dfa_alpha", Value: 0.5, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685"},
+			{Name: "spectral_beta", Value: 0, Unit: "", Source: "standard result for white noise"},
+		},
+		TimeAxis:     AxisIteration,
+		DefaultClass: Stochastic,
+		label:        fixed(Stochastic),
 		build: func(p map[string]float64) (Generator, float64, error) {
 			return White{Sigma: p["sigma"]}, 1, nil
 		},
 	})
 	register(&System{
-		Name:     "ar1",
-		Title:    "AR(1) process x' = phi x + N(0,1)",
-		Doc:      "Gaussian first-order autoregression, started stationary.",
-		Params:   []Param{{Name: "phi", Default: 0.9, Min: -0.999, Max: 0.999, Doc: "lag-one coefficient"}},
-		TimeAxis: "iteration",
-		label:    fixed(Stochastic),
+		Name:   "ar1",
+		Title:  "AR(1) process x' = phi x + N(0,1)",
+		Doc:    "Gaussian first-order autoregression, started stationary. Label: stochastic.",
+		Params: []Param{{Name: "phi", Default: 0.9, Min: -0.999, Max: 0.999, Doc: "lag-one coefficient"}},
+		Invariants: []Invariant{
+			{Name: "lag1_autocorrelation", Value: 0.9, Unit: "", Source: "analytic: ρ(k) = φ^k for AR(1)"},
+		},
+		TimeAxis:     AxisIteration,
+		DefaultClass: Stochastic,
+		label:        fixed(Stochastic),
 		build: func(p map[string]float64) (Generator, float64, error) {
 			return AR1{Phi: p["phi"]}, 1, nil
 		},
@@ -135,7 +151,7 @@ func init() {
 	register(&System{
 		Name:  "ou",
 		Title: "Ornstein–Uhlenbeck process (exact update)",
-		Doc:   "Exact discretisation (Gillespie 1996), started stationary.",
+		Doc:   "Exact discretisation (Gillespie 1996), started stationary. Label: stochastic.",
 		Params: []Param{
 			{Name: "tau", Default: 10, Min: 1e-6, Max: 1e9, Doc: "relaxation time (time units)"},
 			{Name: "s", Default: 1, Min: 1e-12, Max: 1e12, Doc: "stationary standard deviation"},
@@ -144,8 +160,9 @@ func init() {
 		Invariants: []Invariant{
 			{Name: "lag1_autocorrelation", Value: math.Exp(-0.1), Unit: "", Source: "Gillespie, Phys. Rev. E 54 (1996) 2084: e^{-Δ/τ} at Δ = 1, τ = 10"},
 		},
-		TimeAxis: "time",
-		label:    fixed(Stochastic),
+		TimeAxis:     AxisTime,
+		DefaultClass: Stochastic,
+		label:        fixed(Stochastic),
 		build: func(p map[string]float64) (Generator, float64, error) {
 			return OU{Tau: p["tau"], S: p["s"], Dt: p["dt"]}, p["dt"], nil
 		},

@@ -4,9 +4,16 @@
 // generator discards its transient and is deterministic for a given
 // *rand.Rand (math/rand/v2); nothing reads a global generator.
 //
-// Two ways in: the concrete types (Logistic, Henon, Lorenz, ...) for library
-// use, and the registry (Lookup, All) that maps a system name and "k=v"
-// parameter settings onto them for the command line.
+// Two ways in: the concrete types (Logistic, Henon, Lorenz, FGN, ...) for
+// library use, and the registry (Lookup, All) that maps a system name and
+// "k=v" parameter settings onto them for the command line.
+//
+// Labels of deterministic systems are computed from their equations where
+// the parameters can cross regimes: the largest Lyapunov exponent is
+// integrated along an orbit with the tangent map (maps) or the variational
+// equations (flows) and compared with a documented threshold
+// (System.Lyapunov, System.Class). Noises carry a fixed stochastic label and
+// synthetic periodic waveforms a fixed regular label.
 package generators
 
 import (
@@ -15,7 +22,9 @@ import (
 	"math"
 	"math/rand/v2"
 	"sort"
+	"strconv"
 	"strings"
+	"sync"
 )
 
 // Class is the label a reference series carries.
@@ -26,6 +35,16 @@ const (
 	Chaotic    Class = "chaotic"
 	Stochastic Class = "stochastic"
 	Regular    Class = "regular"
+)
+
+// Time axes of System.TimeAxis.
+const (
+	// AxisIteration: the t column is the sample index 0, 1, ..., n−1
+	// (maps and discrete-time processes; New returns dt = 1).
+	AxisIteration = "iteration"
+	// AxisTime: the t column is the system time k·dt of sample k (flows and
+	// sampled continuous-time processes; dt comes from New).
+	AxisTime = "time"
 )
 
 // Generator produces n samples of a series after discarding its transient.
@@ -41,14 +60,18 @@ type Param struct {
 	Default float64 // value used when the caller does not set it
 	Min     float64 // smallest accepted value (inclusive)
 	Max     float64 // largest accepted value (inclusive)
+	Integer bool    // the value must be a whole number (e.g. a count)
 	Doc     string  // meaning and unit
 }
 
 // Invariant is a published or analytic property of a system at its default
-// parameters, with the source it comes from (see REFERENCES.md).
+// parameters, with the source it comes from (see REFERENCES.md). Names follow
+// the feature names of DESIGN.md where one exists (lyap_max, corr_dim,
+// dfa_alpha, spectral_beta, hvg_mean_degree, ...); the Unit says whether a
+// rate is per iteration, per time unit or per sample.
 type Invariant struct {
 	Name   string  // e.g. "lyap_max"
-	Value  float64 // the published value
+	Value  float64 // the published value; NaN when the invariant is a formula
 	Unit   string  // e.g. "per iteration", "per time unit"
 	Source string  // authors, journal, year; "(memory)" when recalled
 }
@@ -56,17 +79,31 @@ type Invariant struct {
 // System is a registry entry: a named reference system with its parameters,
 // label rule and invariants.
 type System struct {
-	Name       string
-	Title      string
+	Name  string
+	Title string
+	// Doc describes the system, its integration or synthesis method and its
+	// label rule.
 	Doc        string
 	Params     []Param
 	Invariants []Invariant
-	// TimeAxis says what the t column of generated CSV holds:
-	// "iteration" for maps and discrete processes, "time" for flows and
-	// sampled continuous processes.
+	// TimeAxis says what the t column of generated CSV holds: AxisIteration
+	// for maps and discrete processes, AxisTime for flows and sampled
+	// continuous processes. Times builds the column.
 	TimeAxis string
-	// label returns the class for a full parameter set.
-	label func(p map[string]float64) Class
+	// DefaultClass is the label at the default parameters. For systems whose
+	// label is computed from the equations, the package tests check that the
+	// rule gives this class, so listing the systems costs no integration.
+	DefaultClass Class
+
+	// label returns the class for a full parameter set. Nil means the label
+	// is computed from lyap: chaotic when λ1 > threshold, otherwise regular.
+	label func(p map[string]float64) (Class, error)
+	// lyap computes the Lyapunov spectrum from the equations (nil for
+	// systems without equations: noises and synthetic waveforms).
+	lyap func(p map[string]float64) (Spectrum, error)
+	// threshold is the λ1 above which a computed label is chaotic, in the
+	// unit of the spectrum.
+	threshold float64
 	// build returns the generator and the sample interval (in the unit of
 	// TimeAxis) for a full parameter set.
 	build func(p map[string]float64) (Generator, float64, error)
@@ -78,14 +115,26 @@ var ErrUnknownSystem = errors.New("unknown system")
 // ErrUnknownParam is returned when a parameter name is not one of the system's.
 var ErrUnknownParam = errors.New("unknown parameter")
 
-// ErrParamRange is returned when a parameter lies outside its documented range.
+// ErrParamRange is returned when a parameter lies outside its documented
+// range or is not a whole number where one is required.
 var ErrParamRange = errors.New("parameter out of range")
+
+// ErrDiverged is returned when an orbit escapes to infinity or an
+// integration stops being finite for the requested parameters.
+var ErrDiverged = errors.New("orbit diverged")
+
+// ErrNoEquations is returned by System.Lyapunov for systems that have no
+// deterministic equations (noises, synthetic waveforms).
+var ErrNoEquations = errors.New("system has no deterministic equations")
 
 var registry = map[string]*System{}
 
 func register(s *System) {
 	if _, dup := registry[s.Name]; dup {
 		panic("generators: duplicate system " + s.Name)
+	}
+	if s.label == nil && s.lyap == nil {
+		panic("generators: system " + s.Name + " has no label rule")
 	}
 	registry[s.Name] = s
 }
@@ -148,6 +197,9 @@ func (s *System) Resolve(overrides map[string]float64) (map[string]float64, erro
 		if math.IsNaN(v) || v < q.Min || v > q.Max {
 			return nil, fmt.Errorf("%s: %w: %s = %g, want %g ≤ %s ≤ %g", s.Name, ErrParamRange, k, v, q.Min, k, q.Max)
 		}
+		if q.Integer && v != math.Trunc(v) {
+			return nil, fmt.Errorf("%s: %w: %s = %g, want a whole number", s.Name, ErrParamRange, k, v)
+		}
 		p[k] = v
 	}
 	return p, nil
@@ -162,19 +214,118 @@ func (s *System) param(name string) (Param, bool) {
 	return Param{}, false
 }
 
+// isDefault reports whether p equals the default parameter set.
+func (s *System) isDefault(p map[string]float64) bool {
+	for _, q := range s.Params {
+		if p[q.Name] != q.Default {
+			return false
+		}
+	}
+	return true
+}
+
 // Class returns the label of the system for the given overrides (nil means
 // defaults). The logistic map, for example, is chaotic at r = 4 and regular
-// at r = 3.5.
+// at r = 3.5. At the defaults it returns DefaultClass without computing;
+// elsewhere a computed label is cached per parameter set, so repeated calls
+// are cheap. The error wraps ErrDiverged when the orbit used by the rule
+// escapes.
 func (s *System) Class(overrides map[string]float64) (Class, error) {
 	p, err := s.Resolve(overrides)
 	if err != nil {
 		return "", err
 	}
-	return s.label(p), nil
+	if s.DefaultClass != "" && s.isDefault(p) {
+		return s.DefaultClass, nil
+	}
+	return s.computeClass(p)
+}
+
+// computeClass applies the label rule to a resolved parameter set, with a
+// cache for the rules that integrate equations.
+func (s *System) computeClass(p map[string]float64) (Class, error) {
+	if s.label != nil {
+		return s.label(p)
+	}
+	key := s.cacheKey(p)
+	classCache.Lock()
+	c, ok := classCache.m[key]
+	classCache.Unlock()
+	if ok {
+		return c, nil
+	}
+	sp, err := s.lyap(p)
+	if err != nil {
+		return "", fmt.Errorf("%s: label rule: %w", s.Name, err)
+	}
+	c = Regular
+	if sp.Exponents[0] > s.threshold {
+		c = Chaotic
+	}
+	classCache.Lock()
+	if len(classCache.m) >= classCacheMax {
+		// Callers sampling parameters at random would grow the cache
+		// without bound; start afresh (labels are deterministic, so this
+		// only costs recomputation).
+		clear(classCache.m)
+	}
+	classCache.m[key] = c
+	classCache.Unlock()
+	return c, nil
+}
+
+// classCacheMax bounds the number of cached computed labels.
+const classCacheMax = 4096
+
+var classCache = struct {
+	sync.Mutex
+	m map[string]Class
+}{m: map[string]Class{}}
+
+func (s *System) cacheKey(p map[string]float64) string {
+	var b strings.Builder
+	b.WriteString(s.Name)
+	for _, q := range s.Params {
+		b.WriteByte(' ')
+		b.WriteString(strconv.FormatFloat(p[q.Name], 'g', -1, 64))
+	}
+	return b.String()
+}
+
+// Lyapunov returns the Lyapunov spectrum of the system's equations at the
+// given overrides (nil means defaults), computed along one orbit from a
+// fixed start with the tangent map (maps) or the variational equations
+// (flows) and QR re-orthonormalisation (Benettin et al., Meccanica 15
+// (1980) 9). It is the quantity the label rule thresholds. Systems without
+// equations return ErrNoEquations.
+func (s *System) Lyapunov(overrides map[string]float64) (Spectrum, error) {
+	if s.lyap == nil {
+		return Spectrum{}, fmt.Errorf("%s: %w", s.Name, ErrNoEquations)
+	}
+	p, err := s.Resolve(overrides)
+	if err != nil {
+		return Spectrum{}, err
+	}
+	sp, err := s.lyap(p)
+	if err != nil {
+		return Spectrum{}, fmt.Errorf("%s: %w", s.Name, err)
+	}
+	return sp, nil
+}
+
+// ChaosThreshold returns the largest Lyapunov exponent above which the
+// computed label is chaotic (unit of the Spectrum), and false for systems
+// whose label is fixed.
+func (s *System) ChaosThreshold() (float64, bool) {
+	if s.label != nil {
+		return 0, false
+	}
+	return s.threshold, true
 }
 
 // New returns the generator for the given overrides (nil means defaults)
-// and the interval between samples in the unit of TimeAxis.
+// and the interval between samples in the unit of TimeAxis (1 for
+// AxisIteration).
 func (s *System) New(overrides map[string]float64) (Generator, float64, error) {
 	p, err := s.Resolve(overrides)
 	if err != nil {
@@ -183,17 +334,58 @@ func (s *System) New(overrides map[string]float64) (Generator, float64, error) {
 	return s.build(p)
 }
 
+// SampleInterval returns the interval between samples in the unit of
+// TimeAxis for the given overrides: 1 for maps and discrete processes, dt
+// for sampled continuous systems.
+func (s *System) SampleInterval(overrides map[string]float64) (float64, error) {
+	_, dt, err := s.New(overrides)
+	return dt, err
+}
+
 // Generate draws n samples with the given overrides (nil means defaults).
 func (s *System) Generate(n int, overrides map[string]float64, rng *rand.Rand) ([]float64, error) {
 	g, _, err := s.New(overrides)
 	if err != nil {
 		return nil, err
 	}
+	// Generator errors already name the generator.
 	return g.Generate(n, rng)
 }
 
-func fixed(c Class) func(map[string]float64) Class {
-	return func(map[string]float64) Class { return c }
+// GenerateNoisy draws n samples like Generate and adds independent Gaussian
+// observational noise at snrDB decibels (AddNoise); +Inf adds none. The
+// label of the result is still the system's Class: DESIGN.md counts chaos
+// seen through moderate noise as chaotic and regular motion with small noise
+// as regular, so callers who train on noisy series should keep the SNR
+// moderate (10 dB or more is common practice).
+func (s *System) GenerateNoisy(n int, overrides map[string]float64, snrDB float64, rng *rand.Rand) ([]float64, error) {
+	x, err := s.Generate(n, overrides, rng)
+	if err != nil {
+		return nil, err
+	}
+	y, err := AddNoise(x, snrDB, rng)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", s.Name, err)
+	}
+	return y, nil
+}
+
+// Times returns the t column for n samples spaced dt apart: t_k = k·dt.
+// With the dt of New this is the iteration index 0..n−1 for AxisIteration
+// systems (dt = 1) and the system time for AxisTime systems.
+func Times(n int, dt float64) []float64 {
+	if n <= 0 {
+		return nil
+	}
+	t := make([]float64, n)
+	for k := range t {
+		t[k] = float64(k) * dt
+	}
+	return t
+}
+
+func fixed(c Class) func(map[string]float64) (Class, error) {
+	return func(map[string]float64) (Class, error) { return c, nil }
 }
 
 // checkN rejects non-positive lengths.

@@ -2,7 +2,6 @@ package main
 
 import (
 	"bufio"
-	"fmt"
 	"io"
 	"math"
 	"math/rand/v2"
@@ -80,11 +79,11 @@ func runGenerate(e *env, name string, o generateOptions) error {
 	rng := rand.New(rand.NewPCG(o.seed, seedStream))
 	x, err := g.Generate(o.n, rng)
 	if err != nil {
-		return fmt.Errorf("%s: %w", name, err)
+		return err
 	}
 	if !math.IsInf(o.snr, 1) {
 		if x, err = generators.AddNoise(x, o.snr, rng); err != nil {
-			return fmt.Errorf("%s: %w", name, err)
+			return err
 		}
 	}
 	return writeOutput(e, o.out, func(w io.Writer) error {
