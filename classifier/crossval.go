@@ -1,0 +1,198 @@
+package classifier
+
+import (
+	"cmp"
+	"fmt"
+	"slices"
+)
+
+// CVSummary is the part of a cross-validation result worth storing in a
+// model file.
+type CVSummary struct {
+	Folds   int  `json:"folds"`
+	Grouped bool `json:"grouped"`
+	// Config is the resolved configuration of the fold forests (each fold
+	// derives its own seed from Config.Seed).
+	Config Config `json:"config"`
+	// Evaluation pools the out-of-fold predictions of all folds.
+	Evaluation
+	// FoldAccuracy is each fold's accuracy on its held-out rows.
+	FoldAccuracy []float64 `json:"fold_accuracy"`
+}
+
+// CVResult is the outcome of CrossValidate.
+type CVResult struct {
+	CVSummary
+	// Fold[i] is the fold that held row i out; Predicted[i] is the index
+	// (into Classes) of row i's out-of-fold top class.
+	Fold      []int `json:"-"`
+	Predicted []int `json:"-"`
+}
+
+// stream numbers separating the random streams derived from Config.Seed.
+const (
+	streamFolds   = 1 << 40
+	streamFoldCfg = 1<<40 + 1
+)
+
+// CrossValidate estimates the accuracy of Train(ds, cfg) by stratified
+// k-fold cross-validation: the rows are dealt into k folds with every
+// class spread as evenly as possible, a forest is trained on k−1 folds and
+// predicts the remaining one, for each fold in turn. If ds.Groups is set,
+// all rows of a group go to the same fold (grouped cross-validation, so a
+// system or device seen in training is never used to test), groups being
+// balanced per majority class. Fold assignment and the fold forests' seeds
+// derive from cfg.Seed, so the result is reproducible. k must be at least 2
+// and at most the number of rows (groups when grouped).
+func CrossValidate(ds Dataset, k int, cfg Config) (CVResult, error) {
+	classes, y, err := ds.validate()
+	if err != nil {
+		return CVResult{}, fmt.Errorf("cross-validate: %w", err)
+	}
+	resolved, err := cfg.resolve(len(ds.Features))
+	if err != nil {
+		return CVResult{}, fmt.Errorf("cross-validate: %w", err)
+	}
+	resolved.Workers = 0
+	fold, err := assignFolds(ds, y, len(classes), k, cfg.Seed)
+	if err != nil {
+		return CVResult{}, fmt.Errorf("cross-validate: %w", err)
+	}
+	n := len(ds.X)
+	res := CVResult{Fold: fold, Predicted: make([]int, n)}
+	res.Folds, res.Grouped, res.Config = k, len(ds.Groups) > 0, resolved
+	res.FoldAccuracy = make([]float64, k)
+	all := newTally(len(classes))
+	for f := 0; f < k; f++ {
+		var trainIdx, testIdx []int
+		for i, fi := range fold {
+			if fi == f {
+				testIdx = append(testIdx, i)
+			} else {
+				trainIdx = append(trainIdx, i)
+			}
+		}
+		fc := cfg
+		fc.Seed = splitmix64(cfg.Seed ^ splitmix64(streamFoldCfg+uint64(f)))
+		m, err := Train(ds.Subset(trainIdx), fc)
+		if err != nil {
+			return CVResult{}, fmt.Errorf("cross-validate: fold %d: %w", f, err)
+		}
+		// Map the fold model's classes (a subset) to the global list.
+		toGlobal := make([]int, len(m.Classes))
+		for c, name := range m.Classes {
+			toGlobal[c], _ = slices.BinarySearch(classes, name)
+		}
+		x := make([]float64, len(ds.Features))
+		sum := make([]float64, len(m.Classes))
+		good := 0
+		for _, i := range testIdx {
+			m.impute(x, ds.X[i])
+			top := m.classify(x, sum)
+			pred := toGlobal[top]
+			res.Predicted[i] = pred
+			all.add(y[i], pred, m.undetermined(x, sum, top))
+			if pred == y[i] {
+				good++
+			}
+		}
+		res.FoldAccuracy[f] = float64(good) / float64(len(testIdx))
+	}
+	res.Evaluation = all.evaluation(classes)
+	return res, nil
+}
+
+// assignFolds deals rows (or whole groups) into k folds, stratified by
+// class; see CrossValidate.
+func assignFolds(ds Dataset, y []int, nClass, k int, seed uint64) ([]int, error) {
+	n := len(y)
+	rng := streamRand(seed, streamFolds)
+	fold := make([]int, n)
+	if len(ds.Groups) == 0 {
+		if k < 2 || k > n {
+			return nil, fmt.Errorf("%d folds for %d rows, want 2 ≤ k ≤ rows: %w", k, n, ErrConfig)
+		}
+		next := 0
+		for c := 0; c < nClass; c++ {
+			var idx []int
+			for i, yi := range y {
+				if yi == c {
+					idx = append(idx, i)
+				}
+			}
+			rng.Shuffle(len(idx), func(a, b int) { idx[a], idx[b] = idx[b], idx[a] })
+			for _, i := range idx {
+				fold[i] = next
+				next = (next + 1) % k
+			}
+		}
+		return fold, nil
+	}
+
+	// Grouped: one unit per distinct group name.
+	names := slices.Clone(ds.Groups)
+	slices.Sort(names)
+	names = slices.Compact(names)
+	if k < 2 || k > len(names) {
+		return nil, fmt.Errorf("%d folds for %d groups, want 2 ≤ k ≤ groups: %w", k, len(names), ErrConfig)
+	}
+	type group struct {
+		rows  []int
+		class int
+	}
+	groups := make([]group, len(names))
+	for i, g := range ds.Groups {
+		gi, _ := slices.BinarySearch(names, g)
+		groups[gi].rows = append(groups[gi].rows, i)
+	}
+	for gi := range groups {
+		cnt := make([]int, nClass)
+		for _, i := range groups[gi].rows {
+			cnt[y[i]]++
+		}
+		best := 0
+		for c := range cnt {
+			if cnt[c] > cnt[best] {
+				best = c
+			}
+		}
+		groups[gi].class = best
+	}
+	perClass := make([][]int, k) // rows of each class already in each fold
+	for f := range perClass {
+		perClass[f] = make([]int, nClass)
+	}
+	total := make([]int, k)
+	for c := 0; c < nClass; c++ {
+		var members []int
+		for gi := range groups {
+			if groups[gi].class == c {
+				members = append(members, gi)
+			}
+		}
+		rng.Shuffle(len(members), func(a, b int) { members[a], members[b] = members[b], members[a] })
+		slices.SortStableFunc(members, func(a, b int) int {
+			return cmp.Compare(len(groups[b].rows), len(groups[a].rows))
+		})
+		for _, gi := range members {
+			best := 0
+			for f := 1; f < k; f++ {
+				if perClass[f][c] < perClass[best][c] ||
+					(perClass[f][c] == perClass[best][c] && total[f] < total[best]) {
+					best = f
+				}
+			}
+			for _, i := range groups[gi].rows {
+				fold[i] = best
+			}
+			perClass[best][c] += len(groups[gi].rows)
+			total[best] += len(groups[gi].rows)
+		}
+	}
+	for f := 0; f < k; f++ {
+		if total[f] == 0 {
+			return nil, fmt.Errorf("fold %d received no group: %w", f, ErrConfig)
+		}
+	}
+	return fold, nil
+}
