@@ -1,0 +1,73 @@
+package features
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"fmt"
+	"strings"
+)
+
+// SchemaVersion numbers the layout of the feature vector. It changes when the
+// meaning of a feature changes without its name changing; a changed name
+// list changes SchemaHash on its own.
+const SchemaVersion = 1
+
+// Family groups features by the kind of estimator behind them.
+type Family string
+
+// The feature families, in catalogue order.
+const (
+	FamilyGraph      Family = "graph"
+	FamilyNonlinear  Family = "nonlinear"
+	FamilyScaling    Family = "scaling"
+	FamilyOrdinal    Family = "ordinal"
+	FamilyIncrements Family = "increments"
+)
+
+// Entry describes one feature of the vector.
+type Entry struct {
+	Name        string `json:"name"`
+	Family      Family `json:"family"`
+	Description string `json:"description"`
+	Reference   string `json:"reference"`
+}
+
+// Catalogue returns the entries of the feature vector in order.
+func Catalogue() []Entry {
+	var out []Entry
+	for _, f := range families {
+		out = append(out, f.entries...)
+	}
+	return out
+}
+
+// Names returns the ordered feature names.
+func Names() []string {
+	cat := Catalogue()
+	names := make([]string, len(cat))
+	for i, e := range cat {
+		names[i] = e.Name
+	}
+	return names
+}
+
+// Lookup returns the catalogue entry of a feature.
+func Lookup(name string) (Entry, bool) {
+	for _, e := range Catalogue() {
+		if e.Name == name {
+			return e, true
+		}
+	}
+	return Entry{}, false
+}
+
+// SchemaHash identifies the feature vector layout: the first 16 hex digits
+// of the SHA-256 of the schema version and the ordered names. A model file
+// records it; a model whose hash differs from the running catalogue's was
+// trained on another vector and is refused.
+func SchemaHash() string {
+	h := sha256.New()
+	fmt.Fprintf(h, "tracesift features v%d\n", SchemaVersion)
+	h.Write([]byte(strings.Join(Names(), "\n")))
+	return hex.EncodeToString(h.Sum(nil))[:16]
+}

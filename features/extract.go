@@ -1,0 +1,191 @@
+package features
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sync"
+)
+
+// MinLength is the shortest series Extract accepts. Shorter series leave
+// too few points for the fits of most families (DFA, spectral slope, the
+// Lyapunov divergence curve); common practice.
+const MinLength = 256
+
+// Errors Extract returns for series it cannot measure at all.
+var (
+	ErrTooShort  = errors.New("series too short")
+	ErrNonFinite = errors.New("series holds NaN or Inf")
+	ErrConstant  = errors.New("series is constant")
+)
+
+// Options configures Extract. The zero value selects the defaults.
+type Options struct {
+	// Seed drives every randomised estimator (sampled path lengths and
+	// graph dimension, Louvain order, 0–1 test frequencies). The default 0
+	// is a valid seed: the same series and seed give bit-identical vectors.
+	Seed uint64
+	// Sequential computes the families one after another instead of in
+	// parallel; results are identical either way.
+	Sequential bool
+}
+
+// Vector is a trace's feature vector: Values[i] belongs to Names[i]; a
+// missing feature holds NaN and a non-empty Reasons[i].
+type Vector struct {
+	Names   []string  `json:"names"`
+	Values  []float64 `json:"values"`
+	Reasons []string  `json:"reasons"`
+	// N is the number of samples measured.
+	N int `json:"n"`
+}
+
+// Get returns the value of a named feature and whether it is present.
+func (v Vector) Get(name string) (float64, bool) {
+	for i, n := range v.Names {
+		if n == name {
+			return v.Values[i], !math.IsNaN(v.Values[i])
+		}
+	}
+	return math.NaN(), false
+}
+
+// Missing returns the names of the missing features with their reasons.
+func (v Vector) Missing() map[string]string {
+	m := map[string]string{}
+	for i, r := range v.Reasons {
+		if r != "" {
+			m[v.Names[i]] = r
+		}
+	}
+	return m
+}
+
+// family is one group of features computed together from the standardised
+// series.
+type family struct {
+	name    Family
+	entries []Entry
+	// compute fills the family's features into s.
+	compute func(z []float64, o Options, s *sink)
+}
+
+// families lists the feature families in catalogue order.
+var families = []family{
+	graphFamily,
+	nonlinearFamily,
+	scalingFamily,
+	ordinalFamily,
+	incrementsFamily,
+}
+
+// sink collects one family's values and missing reasons.
+type sink struct {
+	values  map[string]float64
+	reasons map[string]string
+}
+
+func (s *sink) set(name string, v float64) {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		s.miss("not finite", name)
+		return
+	}
+	s.values[name] = v
+}
+
+// miss marks features missing with a reason.
+func (s *sink) miss(reason string, names ...string) {
+	for _, n := range names {
+		s.reasons[n] = reason
+	}
+}
+
+// missErr marks features missing because an estimator failed.
+func (s *sink) missErr(err error, names ...string) {
+	s.miss(err.Error(), names...)
+}
+
+// Extract computes the feature vector of x. x is not modified. The series is
+// standardised to zero mean and unit variance first, so the vector does not
+// depend on the units of the trace.
+func Extract(x []float64, opts Options) (Vector, error) {
+	z, err := Standardise(x)
+	if err != nil {
+		return Vector{}, err
+	}
+	sinks := make([]sink, len(families))
+	run := func(i int) {
+		sinks[i] = sink{values: map[string]float64{}, reasons: map[string]string{}}
+		defer func() {
+			// An estimator panic is a bug, but one bad family must not
+			// take the whole vector down: mark its features missing.
+			if r := recover(); r != nil {
+				names := make([]string, len(families[i].entries))
+				for k, e := range families[i].entries {
+					names[k] = e.Name
+				}
+				sinks[i].miss(fmt.Sprintf("internal error: %v", r), names...)
+			}
+		}()
+		families[i].compute(z, opts, &sinks[i])
+	}
+	if opts.Sequential {
+		for i := range families {
+			run(i)
+		}
+	} else {
+		var wg sync.WaitGroup
+		for i := range families {
+			wg.Add(1)
+			go func() { defer wg.Done(); run(i) }()
+		}
+		wg.Wait()
+	}
+	var v Vector
+	v.N = len(x)
+	for i, f := range families {
+		for _, e := range f.entries {
+			val, ok := sinks[i].values[e.Name]
+			reason := sinks[i].reasons[e.Name]
+			if !ok {
+				val = math.NaN()
+				if reason == "" {
+					reason = "not computed"
+				}
+			}
+			v.Names = append(v.Names, e.Name)
+			v.Values = append(v.Values, val)
+			v.Reasons = append(v.Reasons, reason)
+		}
+	}
+	return v, nil
+}
+
+// Standardise returns (x − mean)/sd, checking the series is long enough,
+// finite and not constant.
+func Standardise(x []float64) ([]float64, error) {
+	if len(x) < MinLength {
+		return nil, fmt.Errorf("%w: %d samples, at least %d needed", ErrTooShort, len(x), MinLength)
+	}
+	var mean float64
+	for i, v := range x {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil, fmt.Errorf("%w at sample %d", ErrNonFinite, i)
+		}
+		mean += v
+	}
+	mean /= float64(len(x))
+	var ss float64
+	for _, v := range x {
+		ss += (v - mean) * (v - mean)
+	}
+	sd := math.Sqrt(ss / float64(len(x)))
+	if !(sd > 0) || sd <= 1e-12*math.Abs(mean) {
+		return nil, ErrConstant
+	}
+	z := make([]float64, len(x))
+	for i, v := range x {
+		z[i] = (v - mean) / sd
+	}
+	return z, nil
+}

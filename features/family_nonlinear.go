@@ -1,0 +1,90 @@
+package features
+
+import (
+	"fmt"
+	"math"
+
+	"tracesift/features/nonlinear"
+)
+
+var nonlinearFamily = family{
+	name: FamilyNonlinear,
+	entries: []Entry{
+		{"lyap_max", FamilyNonlinear, "largest Lyapunov exponent per sample step from the divergence of nearest neighbours; missing when the divergence curve has no credible linear region (as for noise)", "Rosenstein, Collins & De Luca, Physica D 65 (1993) 117"},
+		{"lyap_delay", FamilyNonlinear, "largest Lyapunov exponent per embedding delay (λ·τ): comparable across sampling rates", "Rosenstein et al. (1993); Fraser & Swinney, Phys. Rev. A 33 (1986) 1134"},
+		{"lyap_credible", FamilyNonlinear, "1 when the divergence curve shows a credible exponential-growth region, else 0", "Rosenstein et al. (1993); criterion documented in features/nonlinear"},
+		{"lyap_jump", FamilyNonlinear, "first-step jump of the divergence curve as a fraction of its total rise (≈1 for noise, small for chaos)", "Rosenstein et al. (1993); diagnostic, common practice"},
+		{"corr_dim", FamilyNonlinear, "correlation dimension D2 over the flattest decade of the correlation sum; missing without a scaling region", "Grassberger & Procaccia, Physica D 9 (1983) 189"},
+		{"zero_one_k", FamilyNonlinear, "0–1 test for chaos K (median over random c; ≈1 chaotic or noisy, ≈0 regular), series decimated by the embedding delay", "Gottwald & Melbourne, Proc. R. Soc. A 460 (2004) 603; SIAM J. Appl. Dyn. Syst. 8 (2009) 129"},
+		{"pred_rho1", FamilyNonlinear, "nearest-neighbour (simplex) forecast correlation one sample ahead", "Sugihara & May, Nature 344 (1990) 734"},
+		{"pred_decay", FamilyNonlinear, "fall of the forecast correlation from 1 to 10 samples ahead (large for chaos, flat for noise)", "Sugihara & May (1990)"},
+		{"asym_abs", FamilyNonlinear, "|time-reversal asymmetry| of the increments ⟨Δx³⟩/⟨Δx²⟩^{3/2} (0 for linear Gaussian noise)", "Theiler et al., Physica D 58 (1992) 77"},
+		{"sample_entropy", FamilyNonlinear, "sample entropy, m = 2, r = 0.2·sd (2.185 for Gaussian white noise)", "Richman & Moorman, Am. J. Physiol. 278 (2000) H2039"},
+		{"embed_dim", FamilyNonlinear, "embedding dimension from the saturation of Cao's E1", "Cao, Physica D 110 (1997) 43"},
+		{"cao_e2_dev", FamilyNonlinear, "largest |E2(d) − 1| of Cao's method (≈0 for independent noise, clearly positive for determinism)", "Cao, Physica D 110 (1997) 43"},
+	},
+	compute: computeNonlinear,
+}
+
+func computeNonlinear(z []float64, o Options, s *sink) {
+	all := []string{"lyap_max", "lyap_delay", "lyap_credible", "lyap_jump", "corr_dim", "zero_one_k", "pred_rho1", "pred_decay", "embed_dim", "cao_e2_dev"}
+	emb, err := nonlinear.Embed(z, nonlinear.EmbedOptions{})
+	if err != nil {
+		s.missErr(fmt.Errorf("embedding: %w", err), all...)
+	} else {
+		fixed := emb.Fixed()
+		s.set("embed_dim", float64(emb.Dim))
+		if emb.Cao != nil {
+			s.set("cao_e2_dev", emb.Cao.E2Deviation)
+		} else {
+			s.miss("dimension not chosen by Cao's method", "cao_e2_dev")
+		}
+		if r, err := nonlinear.Lyapunov(z, nonlinear.LyapunovOptions{Embed: fixed}); err != nil {
+			s.missErr(err, "lyap_max", "lyap_delay", "lyap_credible", "lyap_jump")
+		} else {
+			if r.Credible {
+				s.set("lyap_max", r.Lambda)
+				s.set("lyap_delay", r.Lambda*float64(emb.Delay))
+				s.set("lyap_credible", 1)
+			} else {
+				s.miss("no credible exponential divergence: "+r.Reason, "lyap_max", "lyap_delay")
+				s.set("lyap_credible", 0)
+			}
+			if r.Rise > 0 {
+				s.set("lyap_jump", math.Min(1, math.Max(0, r.Jump/r.Rise)))
+			} else {
+				s.set("lyap_jump", 1)
+			}
+		}
+		if r, err := nonlinear.CorrelationDimension(z, nonlinear.CorrDimOptions{Embed: fixed}); err != nil {
+			s.missErr(err, "corr_dim")
+		} else if math.IsNaN(r.D2) {
+			s.miss("no scaling region: "+r.Reason, "corr_dim")
+		} else {
+			s.set("corr_dim", r.D2)
+		}
+		if r, err := nonlinear.ZeroOne(z, nonlinear.ZeroOneOptions{Seed: o.Seed, Decimate: emb.Delay}); err != nil {
+			s.missErr(err, "zero_one_k")
+		} else {
+			s.set("zero_one_k", r.K)
+		}
+		if r, err := nonlinear.Prediction(z, nonlinear.PredictionOptions{Embed: fixed}); err != nil {
+			s.missErr(err, "pred_rho1", "pred_decay")
+		} else {
+			s.set("pred_rho1", r.Rho1)
+			s.set("pred_decay", r.Decay)
+		}
+	}
+	if r, err := nonlinear.Asymmetry(z, nonlinear.AsymmetryOptions{}); err != nil {
+		s.missErr(err, "asym_abs")
+	} else {
+		s.set("asym_abs", r.Abs)
+	}
+	if r, err := nonlinear.SampleEntropy(z, nonlinear.SampEnOptions{}); err != nil {
+		s.missErr(err, "sample_entropy")
+	} else if !r.Defined {
+		s.miss("no template matches of length m+1 (sample entropy undefined)", "sample_entropy")
+	} else {
+		s.set("sample_entropy", r.Value)
+	}
+}

@@ -1,0 +1,45 @@
+package features
+
+import (
+	"math"
+
+	"tracesift/features/ordinal"
+)
+
+var ordinalFamily = family{
+	name: FamilyOrdinal,
+	entries: []Entry{
+		{"perm_entropy", FamilyOrdinal, "normalised permutation entropy, order 4, delay 1 (1 for i.i.d. noise)", "Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102"},
+		{"stat_complexity", FamilyOrdinal, "Jensen–Shannon statistical complexity, order 4 (0 for i.i.d.; high for chaos)", "Rosso et al., Phys. Rev. Lett. 99 (2007) 154102"},
+		{"perm_entropy_d6", FamilyOrdinal, "normalised permutation entropy, order 6", "Bandt & Pompe (2002)"},
+		{"stat_complexity_d6", FamilyOrdinal, "Jensen–Shannon statistical complexity, order 6", "Rosso et al. (2007)"},
+		{"complexity_rel", FamilyOrdinal, "order-6 complexity as a fraction of the way from the lowest to the highest complexity possible at its entropy", "Martin, Plastino & Rosso, Physica A 369 (2006) 439 (memory)"},
+		{"perm_missing_excess", FamilyOrdinal, "order-5 patterns never seen, beyond those an i.i.d. series of this length misses by chance, as a fraction of 5! (forbidden patterns)", "Amigó, Zambrano & Sanjuán, EPL 79 (2007) 50001"},
+	},
+	compute: computeOrdinal,
+}
+
+func computeOrdinal(z []float64, _ Options, s *sink) {
+	if r, err := ordinal.Complexity(z, ordinal.Options{Order: 4}); err != nil {
+		s.missErr(err, "perm_entropy", "stat_complexity")
+	} else {
+		s.set("perm_entropy", r.Entropy)
+		s.set("stat_complexity", r.Complexity)
+	}
+	if r, err := ordinal.Complexity(z, ordinal.Options{Order: 6}); err != nil {
+		s.missErr(err, "perm_entropy_d6", "stat_complexity_d6", "complexity_rel")
+	} else {
+		s.set("perm_entropy_d6", r.Entropy)
+		s.set("stat_complexity_d6", r.Complexity)
+		if span := r.MaxComplexity - r.MinComplexity; span > 1e-12 {
+			s.set("complexity_rel", math.Min(1, math.Max(0, (r.Complexity-r.MinComplexity)/span)))
+		} else {
+			s.miss("entropy at an end of the plane: complexity bounds coincide", "complexity_rel")
+		}
+	}
+	if r, err := ordinal.Missing(z, ordinal.Options{Order: 5}); err != nil {
+		s.missErr(err, "perm_missing_excess")
+	} else {
+		s.set("perm_missing_excess", math.Max(0, float64(r.Missing)-r.ExpectedIID)/float64(r.Patterns))
+	}
+}

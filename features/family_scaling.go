@@ -1,0 +1,87 @@
+package features
+
+import (
+	"math"
+
+	"tracesift/features/scaling"
+)
+
+var scalingFamily = family{
+	name: FamilyScaling,
+	entries: []Entry{
+		{"dfa_alpha", FamilyScaling, "detrended fluctuation exponent α, order 1 (fGn: α = H; white 0.5; Brownian 1.5)", "Peng et al., Phys. Rev. E 49 (1994) 1685"},
+		{"dfa2_alpha", FamilyScaling, "detrended fluctuation exponent α, order 2 (insensitive to linear trends)", "Peng et al., Phys. Rev. E 49 (1994) 1685"},
+		{"dfa_r2", FamilyScaling, "r² of the DFA-1 log–log fit: how well one power law describes F(s)", "Peng et al. (1994); fit quality, common practice"},
+		{"hurst_rs", FamilyScaling, "rescaled-range Hurst exponent with the Anis–Lloyd small-sample correction", "Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111"},
+		{"spectral_beta", FamilyScaling, "spectral exponent β of S(f) ~ f^−β from a Welch periodogram (white 0, fGn 2H−1, Brownian 2)", "Welch (1967); standard result for these processes"},
+		{"spectral_r2", FamilyScaling, "r² of the log–log spectral fit: low for line spectra and humps", "fit quality, common practice"},
+		{"spectral_flatness", FamilyScaling, "Wiener entropy of the Welch spectrum: geometric over arithmetic mean power (1 flat, → 0 for lines)", "Johnston, IEEE J. Sel. Areas Commun. 6 (1988) 314 (memory)"},
+		{"spectral_peak", FamilyScaling, "fraction of the spectral power in the strongest three bins (near 1 for periodic signals)", "spectral concentration, common practice"},
+		{"acf_decay", FamilyScaling, "autocorrelation 1/e decay time in samples, log10 (lower bound when the ACF never decays)", "Box & Jenkins, Time Series Analysis (1970); common practice"},
+	},
+	compute: computeScaling,
+}
+
+func computeScaling(z []float64, _ Options, s *sink) {
+	if r, err := scaling.DFA(z, scaling.DFAOptions{Order: 1}); err != nil {
+		s.missErr(err, "dfa_alpha", "dfa_r2")
+	} else {
+		s.set("dfa_alpha", r.Alpha)
+		s.set("dfa_r2", r.R2)
+	}
+	if r, err := scaling.DFA(z, scaling.DFAOptions{Order: 2}); err != nil {
+		s.missErr(err, "dfa2_alpha")
+	} else {
+		s.set("dfa2_alpha", r.Alpha)
+	}
+	if r, err := scaling.RescaledRange(z, scaling.RSOptions{}); err != nil {
+		s.missErr(err, "hurst_rs")
+	} else {
+		s.set("hurst_rs", r.H)
+	}
+	if r, err := scaling.SpectralSlope(z, scaling.SlopeOptions{}); err != nil {
+		s.missErr(err, "spectral_beta", "spectral_r2")
+	} else {
+		s.set("spectral_beta", r.Beta)
+		s.set("spectral_r2", r.R2)
+	}
+	if sp, err := scaling.Welch(z, scaling.WelchOptions{}); err != nil {
+		s.missErr(err, "spectral_flatness", "spectral_peak")
+	} else {
+		flat, peak := spectralShape(sp.Power[1:])
+		s.set("spectral_flatness", flat)
+		s.set("spectral_peak", peak)
+	}
+	if r, err := scaling.DecayTime(z, scaling.DecayOptions{}); err != nil {
+		// The ACF never fell below 1/e over the lag range: the range is a
+		// lower bound of the decay time, which is what the feature needs.
+		s.set("acf_decay", math.Log10(float64(len(z)/4)))
+	} else {
+		s.set("acf_decay", math.Log10(math.Max(r.Time, 1e-3)))
+	}
+}
+
+// spectralShape returns the spectral flatness (geometric mean over
+// arithmetic mean of the power, DC excluded) and the fraction of the power
+// in the three strongest bins.
+func spectralShape(p []float64) (flatness, peak float64) {
+	var sum, logSum float64
+	top := [3]float64{}
+	for _, v := range p {
+		sum += v
+		logSum += math.Log(math.Max(v, 1e-300))
+		switch {
+		case v > top[0]:
+			top[0], top[1], top[2] = v, top[0], top[1]
+		case v > top[1]:
+			top[1], top[2] = v, top[1]
+		case v > top[2]:
+			top[2] = v
+		}
+	}
+	n := float64(len(p))
+	if sum <= 0 {
+		return math.NaN(), math.NaN()
+	}
+	return math.Exp(logSum/n) / (sum / n), (top[0] + top[1] + top[2]) / sum
+}

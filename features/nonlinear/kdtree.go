@@ -1,0 +1,517 @@
+package nonlinear
+
+import (
+	"math"
+	"math/bits"
+	"slices"
+)
+
+// kdLeafSize is the largest number of points a k-d tree leaf holds.
+const kdLeafSize = 10
+
+// kdTree is a static k-d tree over points of a fixed dimension with exact
+// (tight) bounding boxes per node. It answers nearest-neighbour queries
+// under the maximum or Euclidean norm with a temporal exclusion window
+// (Theiler), k-nearest queries, and exact fixed-radius counts under the
+// maximum norm. Points are copied in tree order for cache locality.
+type kdTree struct {
+	dim   int
+	leaf  int       // largest leaf size
+	data  []float64 // points in tree order, row-major
+	ids   []int32   // original index of each point in tree order
+	nodes []kdNode
+	box   []float64 // per node: lo[0..dim), hi[0..dim)
+	// sorted[c·n + k] holds coordinate c of the points of each leaf, sorted
+	// within the leaf's range; built on demand by pairsWithin.
+	sorted []float64
+}
+
+type kdNode struct {
+	start, end  int32 // point range in tree order
+	left, right int32 // children; left < 0 marks a leaf
+}
+
+// newKDTree builds a tree over the first count points of pts (row-major,
+// dimension dim). count must be ≥ 1.
+//
+// The points are copied and reordered in place (rows swapped), so every
+// pass over a node's points is sequential in memory. The split dimension is
+// the widest side of the node's outer box (the parent's box cut at the split
+// value), the split is at the median; the tight boxes used for pruning are
+// computed bottom-up (leaves scan their points, parents take the union).
+func newKDTree(pts []float64, dim, count int) *kdTree {
+	return newKDTreeLeaf(pts, dim, count, kdLeafSize)
+}
+
+// newKDTreeLeaf is newKDTree with a chosen largest leaf size.
+func newKDTreeLeaf(pts []float64, dim, count, leaf int) *kdTree {
+	t := &kdTree{dim: dim, leaf: max(1, leaf)}
+	t.data = make([]float64, count*dim)
+	copy(t.data, pts[:count*dim])
+	t.ids = make([]int32, count)
+	for i := range t.ids {
+		t.ids[i] = int32(i)
+	}
+	t.nodes = make([]kdNode, 0, 4*count/t.leaf+2)
+	t.box = make([]float64, 0, cap(t.nodes)*2*dim)
+	outer := make([]float64, 2*dim)
+	lo, hi := outer[:dim], outer[dim:]
+	copy(lo, t.data[:dim])
+	copy(hi, t.data[:dim])
+	for i := 1; i < count; i++ {
+		for c, v := range t.data[i*dim : (i+1)*dim] {
+			lo[c] = min(lo[c], v)
+			hi[c] = max(hi[c], v)
+		}
+	}
+	t.build(0, count, outer)
+	return t
+}
+
+// build creates the node for points [start, end) inside the outer box
+// (lo then hi; modified and restored) and returns its number.
+func (t *kdTree) build(start, end int, outer []float64) int32 {
+	d := t.dim
+	me := int32(len(t.nodes))
+	t.nodes = append(t.nodes, kdNode{start: int32(start), end: int32(end), left: -1, right: -1})
+	off := len(t.box)
+	for k := 0; k < 2*d; k++ {
+		t.box = append(t.box, 0)
+	}
+	split, spread := 0, -1.0
+	for c := 0; c < d; c++ {
+		if s := outer[d+c] - outer[c]; s > spread {
+			split, spread = c, s
+		}
+	}
+	if end-start > t.leaf && spread > 0 {
+		mid := (start + end) / 2
+		t.selectNth(start, end, split, mid)
+		sv := t.data[mid*d+split]
+		keep := outer[d+split]
+		outer[d+split] = sv
+		l := t.build(start, mid, outer)
+		outer[d+split] = keep
+		keep = outer[split]
+		outer[split] = sv
+		r := t.build(mid, end, outer)
+		outer[split] = keep
+		t.nodes[me].left, t.nodes[me].right = l, r
+		lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
+		lb, rb := int(l)*2*d, int(r)*2*d
+		for c := 0; c < d; c++ {
+			lo[c] = min(t.box[lb+c], t.box[rb+c])
+			hi[c] = max(t.box[lb+d+c], t.box[rb+d+c])
+		}
+		return me
+	}
+	// Leaf (or a node of identical points): scan its points.
+	lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
+	copy(lo, t.data[start*d:start*d+d])
+	copy(hi, t.data[start*d:start*d+d])
+	for i := start + 1; i < end; i++ {
+		for c, v := range t.data[i*d : (i+1)*d] {
+			lo[c] = min(lo[c], v)
+			hi[c] = max(hi[c], v)
+		}
+	}
+	return me
+}
+
+// swapRows exchanges points i and j (coordinates and ids).
+func (t *kdTree) swapRows(i, j int) {
+	d := t.dim
+	a, b := t.data[i*d:(i+1)*d], t.data[j*d:(j+1)*d]
+	for c := range a {
+		a[c], b[c] = b[c], a[c]
+	}
+	t.ids[i], t.ids[j] = t.ids[j], t.ids[i]
+}
+
+// selectNth reorders points [start, end) so that point k holds the k-th
+// smallest coordinate c, smaller-or-equal ones before it and
+// greater-or-equal ones after (Hoare's selection, median-of-three pivot).
+func (t *kdTree) selectNth(start, end, c, k int) {
+	d, data := t.dim, t.data
+	lo, hi := start, end-1
+	for lo < hi {
+		m := lo + (hi-lo)/2
+		a, b, e := data[lo*d+c], data[m*d+c], data[hi*d+c]
+		pivot := b
+		if (a <= b) == (b <= e) {
+			pivot = b
+		} else if (b <= a) == (a <= e) {
+			pivot = a
+		} else {
+			pivot = e
+		}
+		i, j := lo, hi
+		for i <= j {
+			for data[i*d+c] < pivot {
+				i++
+			}
+			for data[j*d+c] > pivot {
+				j--
+			}
+			if i <= j {
+				t.swapRows(i, j)
+				i++
+				j--
+			}
+		}
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return
+		}
+	}
+}
+
+// boxLower returns a lower bound of the distance from q to any point of node
+// n: the maximum-norm distance, or the squared Euclidean distance.
+func (t *kdTree) boxLower(n int32, q []float64, euclid bool) float64 {
+	d := t.dim
+	off := int(n) * 2 * d
+	lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
+	var s float64
+	for k, v := range q {
+		var g float64
+		if v < lo[k] {
+			g = lo[k] - v
+		} else if v > hi[k] {
+			g = v - hi[k]
+		}
+		if euclid {
+			s += g * g
+		} else if g > s {
+			s = g
+		}
+	}
+	return s
+}
+
+// nnSearch holds the state of one nearest-neighbour query.
+type nnSearch struct {
+	q      []float64
+	qi, w  int  // exclude original indices j with |j − qi| ≤ w
+	euclid bool // squared Euclidean instead of maximum norm
+	best   int
+	bd     float64
+}
+
+// nearest returns the original index of the point nearest to q whose index j
+// satisfies |j − qi| > w and which is distinct from q (distance > 0, as
+// Cao 1997 prescribes for repeated vectors), and its distance (maximum norm,
+// or Euclidean when euclid is set). It returns −1 and +Inf when every point
+// is excluded.
+func (t *kdTree) nearest(q []float64, qi, w int, euclid bool) (int, float64) {
+	s := nnSearch{q: q, qi: qi, w: w, euclid: euclid, best: -1, bd: math.Inf(1)}
+	t.nn(0, &s)
+	if euclid {
+		return s.best, math.Sqrt(s.bd)
+	}
+	return s.best, s.bd
+}
+
+func (t *kdTree) nn(n int32, s *nnSearch) {
+	node := &t.nodes[n]
+	if node.left < 0 {
+		d := t.dim
+		for k := int(node.start); k < int(node.end); k++ {
+			id := int(t.ids[k])
+			if dj := id - s.qi; dj <= s.w && dj >= -s.w {
+				continue
+			}
+			p := t.data[k*d : k*d+d]
+			// Partial distances with early exit: most points of a leaf
+			// are rejected after one or two coordinates in high dimension.
+			var dist float64
+			bd := s.bd
+			if s.euclid {
+				for c, v := range s.q {
+					g := p[c] - v
+					dist += g * g
+					if dist >= bd {
+						break
+					}
+				}
+			} else {
+				for c, v := range s.q {
+					g := math.Abs(p[c] - v)
+					if g > dist {
+						dist = g
+						if dist >= bd {
+							break
+						}
+					}
+				}
+			}
+			if dist < bd && dist > 0 {
+				s.bd, s.best = dist, id
+			}
+		}
+		return
+	}
+	bl := t.boxLower(node.left, s.q, s.euclid)
+	br := t.boxLower(node.right, s.q, s.euclid)
+	first, second, b2 := node.left, node.right, br
+	if br < bl {
+		first, second, b2 = node.right, node.left, bl
+		bl = br
+	}
+	if bl < s.bd {
+		t.nn(first, s)
+	}
+	if b2 < s.bd {
+		t.nn(second, s)
+	}
+}
+
+// knnSearch holds the state of one k-nearest query (Euclidean).
+type knnSearch struct {
+	q     []float64
+	k     int
+	ids   []int     // sorted by distance, ascending
+	dists []float64 // squared distances
+}
+
+// kNearest fills ids and dists (length k, ascending Euclidean distance) with
+// the k points nearest to q; it returns how many were found (< k only when
+// the tree holds fewer than k points).
+func (t *kdTree) kNearest(q []float64, ids []int, dists []float64) int {
+	s := knnSearch{q: q, k: len(ids), ids: ids[:0], dists: dists[:0]}
+	t.knn(0, &s)
+	for i := range s.dists {
+		s.dists[i] = math.Sqrt(s.dists[i])
+	}
+	return len(s.ids)
+}
+
+func (t *kdTree) knn(n int32, s *knnSearch) {
+	node := &t.nodes[n]
+	if node.left < 0 {
+		d := t.dim
+		for k := int(node.start); k < int(node.end); k++ {
+			p := t.data[k*d : k*d+d]
+			full := len(s.ids) == s.k
+			lim := math.Inf(1)
+			if full {
+				lim = s.dists[s.k-1]
+			}
+			var dist float64
+			for c, v := range s.q {
+				g := p[c] - v
+				dist += g * g
+				if dist >= lim {
+					break
+				}
+			}
+			if dist >= lim {
+				continue
+			}
+			// insertion into the sorted list
+			pos := len(s.ids)
+			if !full {
+				s.ids = append(s.ids, 0)
+				s.dists = append(s.dists, 0)
+			} else {
+				pos = s.k - 1
+			}
+			for pos > 0 && s.dists[pos-1] > dist {
+				s.ids[pos], s.dists[pos] = s.ids[pos-1], s.dists[pos-1]
+				pos--
+			}
+			s.ids[pos], s.dists[pos] = int(t.ids[k]), dist
+		}
+		return
+	}
+	bl := t.boxLower(node.left, s.q, true)
+	br := t.boxLower(node.right, s.q, true)
+	first, second, b2 := node.left, node.right, br
+	if br < bl {
+		first, second, b2 = node.right, node.left, bl
+		bl = br
+	}
+	if len(s.ids) < s.k || bl < s.dists[s.k-1] {
+		t.knn(first, s)
+	}
+	if len(s.ids) < s.k || b2 < s.dists[s.k-1] {
+		t.knn(second, s)
+	}
+}
+
+// countWithin returns the number of points p with |p_c − q_c| ≤ r for every
+// coordinate c (maximum norm ≤ r), q itself included if it is in the tree.
+// The count is exact: it equals the one obtained by testing every point with
+// math.Abs(p_c − q_c) ≤ r, because floating-point subtraction is monotone,
+// so whole nodes are accepted or rejected by testing their box corners the
+// same way.
+func (t *kdTree) countWithin(q []float64, r float64) int {
+	return t.count(0, q, r)
+}
+
+func (t *kdTree) count(n int32, q []float64, r float64) int {
+	d := t.dim
+	off := int(n) * 2 * d
+	lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
+	inside := true
+	for c, v := range q {
+		if lo[c]-v > r || v-hi[c] > r {
+			return 0
+		}
+		if hi[c]-v > r || v-lo[c] > r {
+			inside = false
+		}
+	}
+	node := &t.nodes[n]
+	if inside {
+		return int(node.end - node.start)
+	}
+	if node.left >= 0 {
+		return t.count(node.left, q, r) + t.count(node.right, q, r)
+	}
+	cnt := 0
+outer:
+	for k := int(node.start); k < int(node.end); k++ {
+		p := t.data[k*d : k*d+d]
+		for c, v := range q {
+			if math.Abs(p[c]-v) > r {
+				continue outer
+			}
+		}
+		cnt++
+	}
+	return cnt
+}
+
+// pairsWithin returns the number of unordered pairs of distinct points whose
+// maximum-norm distance is ≤ r. It is exact in the same sense as
+// countWithin and uses a dual-tree recursion (Gray & Moore, NIPS 13 (2001)):
+// two nodes whose boxes are entirely within r of each other contribute the
+// product of their sizes at once, two nodes whose boxes are more than r
+// apart contribute nothing, and only the rest are split. A coordinate found
+// to be within r for a pair of nodes is within r for all their descendants,
+// so it is dropped from further tests (a bit mask of undecided coordinates
+// travels down the recursion); the dimension must be ≤ 64.
+func (t *kdTree) pairsWithin(r float64) int64 {
+	if len(t.nodes) == 0 {
+		return 0
+	}
+	if t.sorted == nil {
+		n, d := len(t.ids), t.dim
+		t.sorted = make([]float64, n*d)
+		for i := range t.nodes {
+			nd := &t.nodes[i]
+			if nd.left >= 0 {
+				continue
+			}
+			for c := 0; c < d; c++ {
+				seg := t.sorted[c*n+int(nd.start) : c*n+int(nd.end)]
+				for k := range seg {
+					seg[k] = t.data[(int(nd.start)+k)*d+c]
+				}
+				slices.Sort(seg)
+			}
+		}
+	}
+	return t.pairs(0, 0, r, uint64(1)<<t.dim-1)
+}
+
+func (t *kdTree) pairs(a, b int32, r float64, mask uint64) int64 {
+	d := t.dim
+	oa, ob := int(a)*2*d, int(b)*2*d
+	box := t.box
+	for m := mask; m != 0; m &= m - 1 {
+		c := bits.TrailingZeros64(m)
+		loA, hiA, loB, hiB := box[oa+c], box[oa+d+c], box[ob+c], box[ob+d+c]
+		if loA-hiB > r || loB-hiA > r {
+			return 0
+		}
+		if hiA-loB <= r && hiB-loA <= r {
+			mask &^= 1 << c
+		}
+	}
+	na, nb := &t.nodes[a], &t.nodes[b]
+	sa, sb := int64(na.end-na.start), int64(nb.end-nb.start)
+	if mask == 0 {
+		if a == b {
+			return sa * (sa - 1) / 2
+		}
+		return sa * sb
+	}
+	leafA, leafB := na.left < 0, nb.left < 0
+	if leafA && leafB {
+		return t.leafPairs(na, nb, a == b, r, mask)
+	}
+	if a == b {
+		return t.pairs(na.left, na.left, r, mask) + t.pairs(na.right, na.right, r, mask) + t.pairs(na.left, na.right, r, mask)
+	}
+	// split the larger non-leaf node
+	if leafB || (!leafA && sa >= sb) {
+		return t.pairs(na.left, b, r, mask) + t.pairs(na.right, b, r, mask)
+	}
+	return t.pairs(a, nb.left, r, mask) + t.pairs(a, nb.right, r, mask)
+}
+
+// leafPairs counts by brute force the pairs between two leaves (i < j
+// within one leaf when same), testing only the coordinates in mask.
+func (t *kdTree) leafPairs(na, nb *kdNode, same bool, r float64, mask uint64) int64 {
+	d, data := t.dim, t.data
+	var cnt int64
+	if mask&(mask-1) == 0 {
+		// A single undecided coordinate, the common case: count the pairs
+		// with |a − b| ≤ r between two sorted lists with two pointers. The
+		// valid b for a given a form an interval that moves right as a
+		// grows, because rounded subtraction is monotone, so the count is
+		// exact.
+		c := bits.TrailingZeros64(mask)
+		n := len(t.ids)
+		A := t.sorted[c*n+int(na.start) : c*n+int(na.end)]
+		if same {
+			hi := 0
+			for i, v := range A {
+				hi = max(hi, i+1)
+				for hi < len(A) && A[hi]-v <= r {
+					hi++
+				}
+				cnt += int64(hi - i - 1)
+			}
+			return cnt
+		}
+		B := t.sorted[c*n+int(nb.start) : c*n+int(nb.end)]
+		lo, hi := 0, 0
+		for _, v := range A {
+			for lo < len(B) && v-B[lo] > r {
+				lo++
+			}
+			hi = max(hi, lo)
+			for hi < len(B) && B[hi]-v <= r {
+				hi++
+			}
+			cnt += int64(hi - lo)
+		}
+		return cnt
+	}
+	for i := int(na.start); i < int(na.end); i++ {
+		p := data[i*d : i*d+d]
+		j0 := int(nb.start)
+		if same {
+			j0 = i + 1
+		}
+	next:
+		for j := j0; j < int(nb.end); j++ {
+			q := data[j*d : j*d+d]
+			for m := mask; m != 0; m &= m - 1 {
+				c := bits.TrailingZeros64(m)
+				if math.Abs(q[c]-p[c]) > r {
+					continue next
+				}
+			}
+			cnt++
+		}
+	}
+	return cnt
+}
