@@ -17,6 +17,8 @@ var (
 	ErrTooShort  = errors.New("series too short")
 	ErrNonFinite = errors.New("series holds NaN or Inf")
 	ErrConstant  = errors.New("series is constant")
+	// ErrUnknownFeature names a feature that is not in the catalogue.
+	ErrUnknownFeature = errors.New("unknown feature")
 )
 
 // Options configures Extract. The zero value selects the defaults.
@@ -28,6 +30,10 @@ type Options struct {
 	// Sequential computes the families one after another instead of in
 	// parallel; results are identical either way.
 	Sequential bool
+	// Only, when not empty, restricts the work to these features (e.g. one
+	// statistic for a surrogate test); the others are marked missing as
+	// "not requested". Unknown names are an error.
+	Only []string
 }
 
 // Vector is a trace's feature vector: Values[i] belongs to Names[i]; a
@@ -83,6 +89,21 @@ var families = []family{
 type sink struct {
 	values  map[string]float64
 	reasons map[string]string
+	only    map[string]bool // nil: every feature is wanted
+}
+
+// wants reports whether any of the named features is requested; families
+// skip the work behind features nobody asked for.
+func (s *sink) wants(names ...string) bool {
+	if s.only == nil {
+		return true
+	}
+	for _, n := range names {
+		if s.only[n] {
+			return true
+		}
+	}
+	return false
 }
 
 func (s *sink) set(name string, v float64) {
@@ -113,18 +134,27 @@ func Extract(x []float64, opts Options) (Vector, error) {
 	if err != nil {
 		return Vector{}, err
 	}
+	var only map[string]bool
+	if len(opts.Only) > 0 {
+		only = map[string]bool{}
+		for _, n := range opts.Only {
+			if _, ok := Lookup(n); !ok {
+				return Vector{}, fmt.Errorf("%w %q", ErrUnknownFeature, n)
+			}
+			only[n] = true
+		}
+	}
 	sinks := make([]sink, len(families))
 	run := func(i int) {
-		sinks[i] = sink{values: map[string]float64{}, reasons: map[string]string{}}
+		sinks[i] = sink{values: map[string]float64{}, reasons: map[string]string{}, only: only}
+		if !sinks[i].wants(familyNames(families[i])...) {
+			return
+		}
 		defer func() {
 			// An estimator panic is a bug, but one bad family must not
 			// take the whole vector down: mark its features missing.
 			if r := recover(); r != nil {
-				names := make([]string, len(families[i].entries))
-				for k, e := range families[i].entries {
-					names[k] = e.Name
-				}
-				sinks[i].miss(fmt.Sprintf("internal error: %v", r), names...)
+				sinks[i].miss(fmt.Sprintf("internal error: %v", r), familyNames(families[i])...)
 			}
 		}()
 		families[i].compute(z, opts, &sinks[i])
@@ -151,6 +181,9 @@ func Extract(x []float64, opts Options) (Vector, error) {
 				val = math.NaN()
 				if reason == "" {
 					reason = "not computed"
+					if only != nil && !only[e.Name] {
+						reason = "not requested"
+					}
 				}
 			}
 			v.Names = append(v.Names, e.Name)
@@ -159,6 +192,35 @@ func Extract(x []float64, opts Options) (Vector, error) {
 		}
 	}
 	return v, nil
+}
+
+func familyNames(f family) []string {
+	names := make([]string, len(f.entries))
+	for k, e := range f.entries {
+		names[k] = e.Name
+	}
+	return names
+}
+
+// Value computes one named feature of x: the statistic a surrogate test
+// compares. A feature that is missing for x is an error carrying the
+// reason.
+func Value(name string, x []float64, opts Options) (float64, error) {
+	opts.Only = []string{name}
+	opts.Sequential = true
+	v, err := Extract(x, opts)
+	if err != nil {
+		return math.NaN(), err
+	}
+	for i, n := range v.Names {
+		if n == name {
+			if v.Reasons[i] != "" {
+				return math.NaN(), fmt.Errorf("%s: %s", name, v.Reasons[i])
+			}
+			return v.Values[i], nil
+		}
+	}
+	return math.NaN(), fmt.Errorf("%w %q", ErrUnknownFeature, name)
 }
 
 // Standardise returns (x − mean)/sd, checking the series is long enough,

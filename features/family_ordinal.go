@@ -20,13 +20,15 @@ var ordinalFamily = family{
 }
 
 func computeOrdinal(z []float64, _ Options, s *sink) {
-	if r, err := ordinal.Complexity(z, ordinal.Options{Order: 4}); err != nil {
+	if !s.wants("perm_entropy", "stat_complexity") {
+	} else if r, err := ordinal.Complexity(z, ordinal.Options{Order: 4}); err != nil {
 		s.missErr(err, "perm_entropy", "stat_complexity")
 	} else {
 		s.set("perm_entropy", r.Entropy)
 		s.set("stat_complexity", r.Complexity)
 	}
-	if r, err := ordinal.Complexity(z, ordinal.Options{Order: 6}); err != nil {
+	if !s.wants("perm_entropy_d6", "stat_complexity_d6", "complexity_rel") {
+	} else if r, err := ordinal.Complexity(z, ordinal.Options{Order: 6}); err != nil {
 		s.missErr(err, "perm_entropy_d6", "stat_complexity_d6", "complexity_rel")
 	} else {
 		s.set("perm_entropy_d6", r.Entropy)
@@ -37,7 +39,8 @@ func computeOrdinal(z []float64, _ Options, s *sink) {
 			s.miss("entropy at an end of the plane: complexity bounds coincide", "complexity_rel")
 		}
 	}
-	if r, err := ordinal.Missing(z, ordinal.Options{Order: 5}); err != nil {
+	if !s.wants("perm_missing_excess") {
+	} else if r, err := ordinal.Missing(z, ordinal.Options{Order: 5}); err != nil {
 		s.missErr(err, "perm_missing_excess")
 	} else {
 		s.set("perm_missing_excess", math.Max(0, float64(r.Missing)-r.ExpectedIID)/float64(r.Patterns))

@@ -23,36 +23,42 @@ var scalingFamily = family{
 }
 
 func computeScaling(z []float64, _ Options, s *sink) {
-	if r, err := scaling.DFA(z, scaling.DFAOptions{Order: 1}); err != nil {
+	if !s.wants("dfa_alpha", "dfa_r2") {
+	} else if r, err := scaling.DFA(z, scaling.DFAOptions{Order: 1}); err != nil {
 		s.missErr(err, "dfa_alpha", "dfa_r2")
 	} else {
 		s.set("dfa_alpha", r.Alpha)
 		s.set("dfa_r2", r.R2)
 	}
-	if r, err := scaling.DFA(z, scaling.DFAOptions{Order: 2}); err != nil {
+	if !s.wants("dfa2_alpha") {
+	} else if r, err := scaling.DFA(z, scaling.DFAOptions{Order: 2}); err != nil {
 		s.missErr(err, "dfa2_alpha")
 	} else {
 		s.set("dfa2_alpha", r.Alpha)
 	}
-	if r, err := scaling.RescaledRange(z, scaling.RSOptions{}); err != nil {
+	if !s.wants("hurst_rs") {
+	} else if r, err := scaling.RescaledRange(z, scaling.RSOptions{}); err != nil {
 		s.missErr(err, "hurst_rs")
 	} else {
 		s.set("hurst_rs", r.H)
 	}
-	if r, err := scaling.SpectralSlope(z, scaling.SlopeOptions{}); err != nil {
+	if !s.wants("spectral_beta", "spectral_r2") {
+	} else if r, err := scaling.SpectralSlope(z, scaling.SlopeOptions{}); err != nil {
 		s.missErr(err, "spectral_beta", "spectral_r2")
 	} else {
 		s.set("spectral_beta", r.Beta)
 		s.set("spectral_r2", r.R2)
 	}
-	if sp, err := scaling.Welch(z, scaling.WelchOptions{}); err != nil {
+	if !s.wants("spectral_flatness", "spectral_peak") {
+	} else if sp, err := scaling.Welch(z, scaling.WelchOptions{}); err != nil {
 		s.missErr(err, "spectral_flatness", "spectral_peak")
 	} else {
 		flat, peak := spectralShape(sp.Power[1:])
 		s.set("spectral_flatness", flat)
 		s.set("spectral_peak", peak)
 	}
-	if r, err := scaling.DecayTime(z, scaling.DecayOptions{}); err != nil {
+	if !s.wants("acf_decay") {
+	} else if r, err := scaling.DecayTime(z, scaling.DecayOptions{}); err != nil {
 		// The ACF never fell below 1/e over the lag range: the range is a
 		// lower bound of the decay time, which is what the feature needs.
 		s.set("acf_decay", math.Log10(float64(len(z)/4)))
