@@ -71,3 +71,13 @@ func SchemaHash() string {
 	h.Write([]byte(strings.Join(Names(), "\n")))
 	return hex.EncodeToString(h.Sum(nil))[:16]
 }
+
+// missingByNature lists the features that are absent by nature for whole
+// classes of traces: noise has no credible exponential divergence and no
+// correlation scaling region. Their absence is information (lyap_credible
+// carries it), not a failure worth a warning.
+var missingByNature = map[string]bool{"lyap_max": true, "lyap_delay": true, "corr_dim": true}
+
+// MissingByNature reports whether a feature may be missing for a trace
+// without anything having gone wrong.
+func MissingByNature(name string) bool { return missingByNature[name] }

@@ -223,8 +223,19 @@ func Value(name string, x []float64, opts Options) (float64, error) {
 	return math.NaN(), fmt.Errorf("%w %q", ErrUnknownFeature, name)
 }
 
-// Standardise returns (x − mean)/sd, checking the series is long enough,
-// finite and not constant.
+// quantum is the grid Standardise rounds to, in standard deviations.
+const quantum = 1.0 / (1 << 24)
+
+// Standardise returns (x − mean)/sd rounded to a grid of 2^−24 ≈ 6·10^−8
+// standard deviations, checking the series is long enough, finite and not
+// constant. The rounding sits far below any recorder's resolution, and it
+// is what makes the features exactly independent of units: a unit change
+// x → a·x + b perturbs the standardised values by rounding errors of order
+// 10^−13, which would otherwise create or break ties between equal samples
+// (plateaus, periodic repeats, telegraph levels) and change visibility
+// graphs, ordinal patterns and nearest neighbours. On the grid, equal stays
+// equal and the standardised series is bit-identical in any units (except
+// for the rare sample within 10^−13 of a grid midpoint).
 func Standardise(x []float64) ([]float64, error) {
 	if len(x) < MinLength {
 		return nil, fmt.Errorf("%w: %d samples, at least %d needed", ErrTooShort, len(x), MinLength)
@@ -247,7 +258,7 @@ func Standardise(x []float64) ([]float64, error) {
 	}
 	z := make([]float64, len(x))
 	for i, v := range x {
-		z[i] = (v - mean) / sd
+		z[i] = math.Round((v-mean)/sd/quantum) * quantum
 	}
 	return z, nil
 }

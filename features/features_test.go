@@ -1,0 +1,178 @@
+package features
+
+import (
+	"errors"
+	"math"
+	"math/rand/v2"
+	"regexp"
+	"strings"
+	"testing"
+
+	"tracesift/generators"
+)
+
+// coreNames are the feature names DESIGN.md promises to scripts.
+var coreNames = []string{
+	"lyap_max", "corr_dim", "dfa_alpha", "hurst_rs", "spectral_beta",
+	"perm_entropy", "stat_complexity", "sample_entropy", "zero_one_k",
+	"hvg_mean_degree", "hvg_lambda", "hvg_clustering_mean",
+	"nvg_mean_degree", "nvg_gamma", "nvg_clustering_mean", "nvg_modularity", "nvg_assortativity",
+}
+
+func TestCatalogue(t *testing.T) {
+	seen := map[string]bool{}
+	name := regexp.MustCompile(`^[a-z][a-z0-9_]*$`)
+	for _, e := range Catalogue() {
+		if seen[e.Name] {
+			t.Errorf("duplicate feature %s", e.Name)
+		}
+		seen[e.Name] = true
+		if !name.MatchString(e.Name) {
+			t.Errorf("feature name %q is not snake_case", e.Name)
+		}
+		if e.Description == "" || e.Reference == "" || e.Family == "" {
+			t.Errorf("%s: description, reference and family are required: %+v", e.Name, e)
+		}
+	}
+	for _, n := range coreNames {
+		if !seen[n] {
+			t.Errorf("core feature %s (DESIGN.md) is not in the catalogue", n)
+		}
+	}
+	for n := range missingByNature {
+		if !seen[n] {
+			t.Errorf("missingByNature names %s, which is not a feature", n)
+		}
+	}
+}
+
+func TestSchemaHash(t *testing.T) {
+	h := SchemaHash()
+	if !regexp.MustCompile(`^[0-9a-f]{16}$`).MatchString(h) || h != SchemaHash() {
+		t.Fatalf("SchemaHash %q: want 16 stable hex digits", h)
+	}
+}
+
+func series(t *testing.T, system string, n int, seed uint64) []float64 {
+	t.Helper()
+	s, err := generators.Lookup(system)
+	if err != nil {
+		t.Fatal(err)
+	}
+	x, err := s.Generate(n, nil, rand.New(rand.NewPCG(seed, 99)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return x
+}
+
+func TestExtractIsDeterministicAndOrderFree(t *testing.T) {
+	x := series(t, "henon", 3000, 1)
+	a, err := Extract(x, Options{Seed: 4})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ := Extract(x, Options{Seed: 4, Sequential: true})
+	if strings.Join(a.Names, ",") != strings.Join(Names(), ",") {
+		t.Fatal("vector names differ from the catalogue order")
+	}
+	for i := range a.Values {
+		if math.Float64bits(a.Values[i]) != math.Float64bits(b.Values[i]) || a.Reasons[i] != b.Reasons[i] {
+			t.Errorf("%s: parallel %v (%q) vs sequential %v (%q)", a.Names[i], a.Values[i], a.Reasons[i], b.Values[i], b.Reasons[i])
+		}
+	}
+}
+
+// Every feature must be unchanged when the trace changes units
+// (x → a·x + b, a > 0): DESIGN.md's "amperes vs microamperes". The series is
+// standardised before any estimator sees it, so the only differences left
+// are rounding in the standardisation, far below the tolerance here.
+func TestExtractIsScaleAndOffsetInvariant(t *testing.T) {
+	for _, sys := range []string{"henon", "ar1", "sine", "lorenz", "telegraph"} {
+		x := series(t, sys, 2500, 2)
+		ref, err := Extract(x, Options{Seed: 1})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, ab := range [][2]float64{{1e-6, 3e-5}, {2.5e3, -40}, {1, 1e3}} {
+			y := make([]float64, len(x))
+			for i, v := range x {
+				y[i] = ab[0]*v + ab[1]
+			}
+			got, err := Extract(y, Options{Seed: 1})
+			if err != nil {
+				t.Fatal(err)
+			}
+			for i, name := range ref.Names {
+				r, g := ref.Values[i], got.Values[i]
+				if math.IsNaN(r) != math.IsNaN(g) || (!math.IsNaN(r) && math.Abs(r-g) > 1e-7*math.Max(1, math.Abs(r))) {
+					t.Errorf("%s, a=%g b=%g: %s = %v, was %v", sys, ab[0], ab[1], name, g, r)
+				}
+			}
+		}
+	}
+}
+
+func TestMissingFeaturesCarryReasons(t *testing.T) {
+	for _, sys := range []string{"white", "sine", "logistic"} {
+		v, err := Extract(series(t, sys, 300, 3), Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i, name := range v.Names {
+			missing := math.IsNaN(v.Values[i])
+			if missing != (v.Reasons[i] != "") {
+				t.Errorf("%s %s: value %v with reason %q; a missing value needs a reason and only it", sys, name, v.Values[i], v.Reasons[i])
+			}
+		}
+	}
+	// White noise has no credible Lyapunov exponent (Rosenstein et al. 1993
+	// divergence curve saturates at once): missing by nature, with a reason.
+	v, _ := Extract(series(t, "white", 3000, 5), Options{})
+	if _, ok := v.Get("lyap_max"); ok {
+		t.Error("white noise got a Lyapunov exponent")
+	}
+	if c, _ := v.Get("lyap_credible"); c != 0 {
+		t.Errorf("white noise lyap_credible = %v, want 0", c)
+	}
+}
+
+func TestValueMatchesExtract(t *testing.T) {
+	x := series(t, "henon", 2000, 6)
+	full, _ := Extract(x, Options{Seed: 2})
+	for _, name := range []string{"asym_abs", "hvg_lambda", "perm_entropy", "dfa_alpha", "lyap_max", "inc_kurt"} {
+		got, err := Value(name, x, Options{Seed: 2})
+		want, _ := full.Get(name)
+		if err != nil || math.Float64bits(got) != math.Float64bits(want) {
+			t.Errorf("Value(%s) = %v, %v; Extract gave %v", name, got, err, want)
+		}
+	}
+	if _, err := Value("nosuch", x, Options{}); !errors.Is(err, ErrUnknownFeature) {
+		t.Errorf("unknown feature: err %v", err)
+	}
+	if _, err := Value("lyap_max", series(t, "white", 2000, 1), Options{}); err == nil || !strings.Contains(err.Error(), "no credible") {
+		t.Errorf("missing feature: err %v, want the reason", err)
+	}
+}
+
+func TestExtractRejectsUnusableSeries(t *testing.T) {
+	long := make([]float64, 1000)
+	for i := range long {
+		long[i] = float64(i % 7)
+	}
+	nan := append([]float64{}, long...)
+	nan[10] = math.NaN()
+	cases := []struct {
+		x    []float64
+		want error
+	}{
+		{make([]float64, 100), ErrTooShort},
+		{make([]float64, 1000), ErrConstant},
+		{nan, ErrNonFinite},
+	}
+	for _, c := range cases {
+		if _, err := Extract(c.x, Options{}); !errors.Is(err, c.want) {
+			t.Errorf("err %v, want %v", err, c.want)
+		}
+	}
+}

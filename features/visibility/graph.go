@@ -1,0 +1,326 @@
+package visibility
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+)
+
+// Sentinel errors that callers may need to tell apart (test with errors.Is).
+var (
+	// ErrEmpty: the series (or graph) has no samples.
+	ErrEmpty = errors.New("visibility: empty input")
+	// ErrNonFinite: the series holds NaN or ±Inf.
+	ErrNonFinite = errors.New("visibility: non-finite sample")
+	// ErrTooLong: the series has more samples than int32 node indices allow.
+	ErrTooLong = errors.New("visibility: series too long for int32 node indices")
+	// ErrTooManyEdges: construction would exceed Options.MaxEdges.
+	ErrTooManyEdges = errors.New("visibility: too many edges")
+	// ErrBadEdge: an edge list names a node out of range or a self-loop.
+	ErrBadEdge = errors.New("visibility: bad edge")
+	// ErrUndefined: the metric is undefined on this graph (e.g. assortativity
+	// of a graph whose edge ends all have the same degree).
+	ErrUndefined = errors.New("visibility: metric undefined for this graph")
+	// ErrTooFewPoints: a fit has too few data to be meaningful.
+	ErrTooFewPoints = errors.New("visibility: too few points for a fit")
+	// ErrUnknownKind: ParseKind was given a name it does not know.
+	ErrUnknownKind = errors.New("visibility: unknown graph kind")
+)
+
+// Kind names the criterion a graph was built with.
+type Kind uint8
+
+// The graph kinds.
+const (
+	KindOther Kind = iota // built from an edge list (FromEdges)
+	KindNVG               // natural visibility graph (Natural)
+	KindHVG               // horizontal visibility graph (Horizontal)
+)
+
+// String returns "nvg", "hvg" or "other".
+func (k Kind) String() string {
+	switch k {
+	case KindNVG:
+		return "nvg"
+	case KindHVG:
+		return "hvg"
+	default:
+		return "other"
+	}
+}
+
+// ParseKind maps "nvg"/"natural" and "hvg"/"horizontal" (any case) to a Kind.
+func ParseKind(s string) (Kind, error) {
+	switch strings.ToLower(strings.TrimSpace(s)) {
+	case "nvg", "natural":
+		return KindNVG, nil
+	case "hvg", "horizontal":
+		return KindHVG, nil
+	}
+	return KindOther, fmt.Errorf("%w: %q (want nvg or hvg)", ErrUnknownKind, s)
+}
+
+// Options controls graph construction. The zero value means the defaults.
+type Options struct {
+	// MaxEdges bounds the number of edges; construction stops with
+	// ErrTooManyEdges beyond it. Zero means DefaultMaxEdges. The NVG of a
+	// convex sequence has n(n−1)/2 edges, so without a bound a long convex or
+	// strongly accelerating trace could exhaust memory (16 bytes per edge are
+	// held at the peak of construction).
+	MaxEdges int64
+}
+
+// DefaultMaxEdges is the edge bound used when Options.MaxEdges is zero:
+// 2^27 ≈ 1.3·10^8 edges, about 2 GiB at the peak of construction. A
+// 10^6-sample NVG of noise or Brownian motion has ~10^7 edges.
+const DefaultMaxEdges int64 = 1 << 27
+
+func (o Options) maxEdges() int64 {
+	if o.MaxEdges > 0 {
+		return o.MaxEdges
+	}
+	return DefaultMaxEdges
+}
+
+// Graph is a simple undirected graph on the nodes 0..Len()−1 in compressed
+// sparse row form: the neighbours of node i are Adj[Offsets[i]:Offsets[i+1]],
+// sorted ascending, without duplicates or self-loops. Node indices are time
+// indices, so each edge {i, j}, i < j, is also the arc i → j forward in time.
+// A Graph is immutable after construction and safe for concurrent reads.
+// Obtain one from Natural, Horizontal, Build or FromEdges; the zero Graph is
+// an empty graph.
+type Graph struct {
+	kind    Kind
+	offsets []int64 // len n+1
+	adj     []int32 // len 2·edges
+	lower   []int32 // lower[i] = number of neighbours j < i (the in-degree)
+}
+
+// Len returns the number of nodes (0 for the zero Graph).
+func (g *Graph) Len() int { return max(len(g.offsets)-1, 0) }
+
+// Edges returns the number of undirected edges.
+func (g *Graph) Edges() int64 { return int64(len(g.adj)) / 2 }
+
+// Kind returns the criterion the graph was built with.
+func (g *Graph) Kind() Kind { return g.kind }
+
+// Degree returns the degree of node i (0 ≤ i < Len()).
+func (g *Graph) Degree(i int) int { return int(g.offsets[i+1] - g.offsets[i]) }
+
+// Neighbors returns the sorted neighbours of node i. The slice aliases the
+// graph's storage: do not modify it.
+func (g *Graph) Neighbors(i int) []int32 { return g.adj[g.offsets[i]:g.offsets[i+1]] }
+
+// Predecessors returns the neighbours j < i of node i (the sources of the arcs
+// j → i when edges point forward in time), sorted. Do not modify the slice.
+func (g *Graph) Predecessors(i int) []int32 {
+	s := g.offsets[i]
+	return g.adj[s : s+int64(g.lower[i])]
+}
+
+// Successors returns the neighbours j > i of node i (the targets of the arcs
+// i → j when edges point forward in time), sorted. Do not modify the slice.
+func (g *Graph) Successors(i int) []int32 {
+	return g.adj[g.offsets[i]+int64(g.lower[i]) : g.offsets[i+1]]
+}
+
+// InDegree returns the number of arcs j → i, j < i, with edges pointing
+// forward in time (the in-degree of the directed visibility graph).
+func (g *Graph) InDegree(i int) int { return int(g.lower[i]) }
+
+// OutDegree returns the number of arcs i → j, j > i, with edges pointing
+// forward in time (the out-degree of the directed visibility graph).
+func (g *Graph) OutDegree(i int) int { return g.Degree(i) - int(g.lower[i]) }
+
+// CSR returns the raw compressed adjacency: offsets (length Len()+1) and the
+// concatenated sorted neighbour lists. The slices alias the graph's storage:
+// do not modify them.
+func (g *Graph) CSR() (offsets []int64, adj []int32) { return g.offsets, g.adj }
+
+// HasEdge reports whether i and j are adjacent (binary search, O(log k)).
+func (g *Graph) HasEdge(i, j int) bool {
+	if i < 0 || j < 0 || i >= g.Len() || j >= g.Len() {
+		return false
+	}
+	_, ok := slices.BinarySearch(g.Neighbors(i), int32(j))
+	return ok
+}
+
+// FromEdges builds a graph of kind KindOther on n nodes from an edge list.
+// Each pair is an undirected edge; order inside a pair does not matter and
+// duplicates are merged. Self-loops and out-of-range nodes give ErrBadEdge.
+// It exists for graphs that do not come from a series (tests, fixtures).
+func FromEdges(n int, edges [][2]int32) (*Graph, error) {
+	if n < 0 || n > math.MaxInt32 {
+		return nil, fmt.Errorf("from edges: n = %d: %w", n, ErrTooLong)
+	}
+	var buf pairBuf
+	type pair struct{ a, b int32 }
+	ps := make([]pair, 0, len(edges))
+	for k, e := range edges {
+		a, b := e[0], e[1]
+		if a < 0 || b < 0 || int(a) >= n || int(b) >= n {
+			return nil, fmt.Errorf("from edges: edge %d (%d,%d) with n = %d: %w", k, a, b, n, ErrBadEdge)
+		}
+		if a == b {
+			return nil, fmt.Errorf("from edges: edge %d is a self-loop on %d: %w", k, a, ErrBadEdge)
+		}
+		if a > b {
+			a, b = b, a
+		}
+		ps = append(ps, pair{a, b})
+	}
+	slices.SortFunc(ps, func(p, q pair) int {
+		if p.a != q.a {
+			return int(p.a) - int(q.a)
+		}
+		return int(p.b) - int(q.b)
+	})
+	for k, p := range ps {
+		if k > 0 && p == ps[k-1] {
+			continue
+		}
+		buf.add(int(p.a), int(p.b))
+	}
+	return fromPairs(n, &buf, KindOther), nil
+}
+
+// pairChunk is the number of edges per chunk of a pairBuf (512 KiB).
+const pairChunk = 1 << 16
+
+// pairBuf collects edges (lo, hi), lo < hi, packed as lo<<32 | hi into
+// fixed-size chunks, so that growing it never copies what is already stored.
+type pairBuf struct {
+	chunks [][]uint64
+	n      int64
+}
+
+// add appends the edge {a, b} (stored as min, max).
+func (p *pairBuf) add(a, b int) {
+	if a > b {
+		a, b = b, a
+	}
+	k := len(p.chunks)
+	if k == 0 || len(p.chunks[k-1]) == cap(p.chunks[k-1]) {
+		// Chunks grow from 1024 edges to pairChunk, so small graphs stay small.
+		c := pairChunk
+		if k < 6 {
+			c = 1024 << (2 * k)
+			c = min(c, pairChunk)
+		}
+		p.chunks = append(p.chunks, make([]uint64, 0, c))
+		k++
+	}
+	p.chunks[k-1] = append(p.chunks[k-1], uint64(a)<<32|uint64(b))
+	p.n++
+}
+
+// fromPairs builds the CSR graph from the edges in p (lo < hi, no
+// duplicates) without per-edge allocation: a counting sort by the upper end
+// fills each node's lower-neighbour section, which is then sorted (it is
+// usually already sorted or reversed, both O(k)); walking the upper ends in
+// ascending order then fills the upper sections already sorted. The chunks
+// of p are released as they are consumed.
+func fromPairs(n int, p *pairBuf, kind Kind) *Graph {
+	lower := make([]int32, n)
+	offsets := make([]int64, n+1) // degree, then offsets
+	for _, ch := range p.chunks {
+		for _, e := range ch {
+			lower[uint32(e)]++
+			offsets[e>>32]++
+			offsets[uint32(e)]++
+		}
+	}
+	var sum int64
+	for i := 0; i < n; i++ {
+		d := offsets[i]
+		offsets[i] = sum
+		sum += d
+	}
+	offsets[n] = sum
+	adj := make([]int32, sum)
+	cur := make([]int32, n)
+	// Lower sections in emission order.
+	for k, ch := range p.chunks {
+		for _, e := range ch {
+			j := uint32(e)
+			adj[offsets[j]+int64(cur[j])] = int32(e >> 32)
+			cur[j]++
+		}
+		p.chunks[k] = nil
+	}
+	p.chunks, p.n = nil, 0
+	for j := 0; j < n; j++ {
+		sortSection(adj[offsets[j] : offsets[j]+int64(lower[j])])
+	}
+	// Upper sections: for j ascending, append j to each lower neighbour i.
+	clear(cur)
+	for j := 0; j < n; j++ {
+		s := offsets[j]
+		for _, i := range adj[s : s+int64(lower[j])] {
+			adj[offsets[i]+int64(lower[i])+int64(cur[i])] = int32(j)
+			cur[i]++
+		}
+	}
+	return &Graph{kind: kind, offsets: offsets, adj: adj, lower: lower}
+}
+
+// sortSection sorts s ascending, in O(len) when it is already sorted or
+// strictly reversed.
+func sortSection(s []int32) {
+	if len(s) < 2 {
+		return
+	}
+	asc, desc := true, true
+	for k := 1; k < len(s); k++ {
+		if s[k] < s[k-1] {
+			asc = false
+		} else {
+			desc = false
+		}
+		if !asc && !desc {
+			break
+		}
+	}
+	switch {
+	case asc:
+	case desc:
+		slices.Reverse(s)
+	default:
+		slices.Sort(s)
+	}
+}
+
+// checkSeries validates a series for graph construction.
+func checkSeries(x []float64, what string) error {
+	if len(x) == 0 {
+		return fmt.Errorf("%s: %w", what, ErrEmpty)
+	}
+	if len(x) >= math.MaxInt32 {
+		return fmt.Errorf("%s: n = %d: %w", what, len(x), ErrTooLong)
+	}
+	for i, v := range x {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return fmt.Errorf("%s: sample %d is %v: %w", what, i, v, ErrNonFinite)
+		}
+	}
+	return nil
+}
+
+// Build builds the graph of the given kind (KindNVG or KindHVG) from x.
+func Build(x []float64, kind Kind, opts Options) (*Graph, error) {
+	switch kind {
+	case KindNVG:
+		return Natural(x, opts)
+	case KindHVG:
+		return Horizontal(x, opts)
+	}
+	return nil, fmt.Errorf("build: kind %v: %w", kind, ErrUnknownKind)
+}
+
+func errTooMany(what string, max int64) error {
+	return fmt.Errorf("%s: more than %d edges (raise Options.MaxEdges): %w", what, max, ErrTooManyEdges)
+}

@@ -1,0 +1,150 @@
+package visibility
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/rand/v2"
+)
+
+// MeasureOptions selects and tunes the metrics of Measure. The zero value
+// computes everything with the defaults.
+type MeasureOptions struct {
+	Tail     TailOptions
+	PowerLaw PowerLawOptions
+	// ExactMax and Sources: see PathOptions (zero means the defaults).
+	ExactMax int
+	Sources  int
+	// NoPaths skips the BFS-based metrics (path length, diameter, local
+	// dimension), the most expensive part on large graphs.
+	NoPaths bool
+	// NoCommunities skips Louvain (modularity, communities).
+	NoCommunities bool
+	// Resolution of the modularity; zero means 1.
+	Resolution float64
+	// Seed seeds the sampling of BFS sources. Louvain visits nodes in index
+	// order (deterministic, and 2–3× faster than a shuffled order on
+	// visibility graphs, whose neighbours are close in time). Same graph and
+	// seed ⇒ identical Metrics.
+	Seed uint64
+}
+
+// Metrics holds every metric of a visibility graph: the headline numbers at
+// the top (NaN, written as JSON null, when undefined or not computed) and the
+// diagnostics of each below.
+type Metrics struct {
+	Kind  string `json:"kind"`
+	Nodes int    `json:"nodes"`
+	Edges int64  `json:"edges"`
+
+	MeanDegree float64 `json:"mean_degree"`
+	// Lambda is the exponential tail rate of P(k) (the HVG statistic;
+	// computed for every kind). See ExponentialTail.
+	Lambda float64 `json:"lambda"`
+	// Gamma is the power-law exponent of P(k) (the NVG statistic; computed
+	// for every kind). See PowerLaw.
+	Gamma              float64 `json:"gamma"`
+	ClusteringMean     float64 `json:"clustering_mean"`
+	Assortativity      float64 `json:"assortativity"`
+	Modularity         float64 `json:"modularity"`
+	Communities        int     `json:"communities"`
+	AvgPathLength      float64 `json:"avg_path_length"`
+	Diameter           int     `json:"diameter"`
+	LocalDimension     float64 `json:"local_dimension"`
+	IrreversibilityKLD float64 `json:"irreversibility_kld"`
+
+	Degree          DegreeStats          `json:"degree"`
+	Tail            *TailFit             `json:"tail,omitempty"`
+	PowerLaw        *PowerLawFit         `json:"power_law,omitempty"`
+	Clustering      ClusteringStats      `json:"clustering"`
+	Partition       *Partition           `json:"partition,omitempty"`
+	Paths           *PathStats           `json:"paths,omitempty"`
+	Dimension       *DimensionStats      `json:"dimension,omitempty"`
+	Irreversibility IrreversibilityStats `json:"irreversibility"`
+	// Warnings name the metrics that could not be computed and why.
+	Warnings []string `json:"warnings,omitempty"`
+}
+
+// MarshalJSON writes the metrics with NaN and ±Inf as null (encoding/json
+// would refuse them).
+func (m Metrics) MarshalJSON() ([]byte, error) { return marshalNaNSafe(m) }
+
+// Measure computes all metrics of g: degree statistics, tail fits (λ and γ),
+// clustering, assortativity, and unless switched off, Louvain modularity and
+// the BFS metrics (path length, diameter, local dimension), plus the in/out
+// irreversibility. A metric that is undefined on g (too few tail points, zero
+// degree variance, ...) is NaN with a warning; only an empty graph is an
+// error (ErrEmpty). Cost on a 10^6-node NVG: seconds (see BENCHMARKS).
+func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
+	nan := math.NaN()
+	m := Metrics{
+		Kind: g.Kind().String(), Nodes: g.Len(), Edges: g.Edges(),
+		MeanDegree: nan, Lambda: nan, Gamma: nan, ClusteringMean: nan,
+		Assortativity: nan, Modularity: nan, AvgPathLength: nan,
+		LocalDimension: nan, IrreversibilityKLD: nan,
+	}
+	if g.Len() == 0 {
+		return m, fmt.Errorf("measure: %w", ErrEmpty)
+	}
+	warn := func(what string, err error) {
+		m.Warnings = append(m.Warnings, fmt.Sprintf("%s: %v", what, err))
+	}
+	m.Degree = Degrees(g)
+	m.MeanDegree = m.Degree.Mean
+	hist := degreeHistogram(g)
+
+	if t, err := tailFromHist(hist, opts.Tail); err != nil {
+		warn("lambda", err)
+	} else {
+		m.Tail = &t
+		m.Lambda = t.Lambda
+	}
+	if p, err := powerLawFromHist(hist, opts.PowerLaw); err != nil {
+		warn("gamma", err)
+	} else {
+		m.PowerLaw = &p
+		m.Gamma = p.Gamma
+	}
+	_, m.Clustering = Clustering(g)
+	m.ClusteringMean = m.Clustering.Mean
+	if r, err := Assortativity(g); err != nil {
+		warn("assortativity", err)
+	} else {
+		m.Assortativity = r
+	}
+	if !opts.NoCommunities {
+		p, err := Louvain(g, LouvainOptions{Resolution: opts.Resolution})
+		if err != nil {
+			warn("modularity", err)
+		} else {
+			m.Partition = &p
+			m.Modularity = p.Modularity
+			m.Communities = p.Communities
+		}
+	}
+	if !opts.NoPaths {
+		rng := rand.New(rand.NewPCG(opts.Seed, 0x50617468)) // BFS-source stream
+		ps, ds, err := pathsAndDimension(g, PathOptions{ExactMax: opts.ExactMax, Sources: opts.Sources, Rand: rng}, true, true)
+		if err != nil && !errors.Is(err, ErrTooFewPoints) {
+			warn("paths", err)
+		} else if err != nil {
+			warn("local dimension", err)
+		}
+		if !math.IsNaN(ps.AvgPathLength) {
+			m.Paths = &ps
+			m.AvgPathLength = ps.AvgPathLength
+			m.Diameter = ps.Diameter
+		}
+		if !math.IsNaN(ds.Mean) {
+			m.Dimension = &ds
+			m.LocalDimension = ds.Mean
+		}
+	}
+	if ir, err := Irreversibility(g); err != nil {
+		warn("irreversibility", err)
+	} else {
+		m.Irreversibility = ir
+		m.IrreversibilityKLD = ir.KLD
+	}
+	return m, nil
+}
