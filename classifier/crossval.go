@@ -45,6 +45,14 @@ const (
 // derive from cfg.Seed, so the result is reproducible. k must be at least 2
 // and at most the number of rows (groups when grouped).
 func CrossValidate(ds Dataset, k int, cfg Config) (CVResult, error) {
+	return CrossValidateEach(ds, k, cfg, nil)
+}
+
+// CrossValidateEach is CrossValidate that also hands each fold's forest and
+// held-out rows to each (when not nil), e.g. to measure permutation
+// importance on data the forest has not seen. Folds are visited in order;
+// an error from each stops the run.
+func CrossValidateEach(ds Dataset, k int, cfg Config, each func(fold int, m *Model, test Dataset) error) (CVResult, error) {
 	classes, y, err := ds.validate()
 	if err != nil {
 		return CVResult{}, fmt.Errorf("cross-validate: %w", err)
@@ -97,6 +105,11 @@ func CrossValidate(ds Dataset, k int, cfg Config) (CVResult, error) {
 			}
 		}
 		res.FoldAccuracy[f] = float64(good) / float64(len(testIdx))
+		if each != nil {
+			if err := each(f, m, ds.Subset(testIdx)); err != nil {
+				return CVResult{}, fmt.Errorf("cross-validate: fold %d: %w", f, err)
+			}
+		}
 	}
 	res.Evaluation = all.evaluation(classes)
 	return res, nil

@@ -19,7 +19,7 @@ import (
 // selects the defaults.
 type ReferenceOptions struct {
 	// PerClass is the number of series drawn for each class label a plan
-	// entry carries by default (default 1200). The count is split evenly
+	// entry carries by default (default 1000). The count is split evenly
 	// among the systems of that class, so a class with few systems gets
 	// more series from each.
 	PerClass int
@@ -48,7 +48,7 @@ type ReferenceOptions struct {
 
 func (o ReferenceOptions) withDefaults() ReferenceOptions {
 	if o.PerClass <= 0 {
-		o.PerClass = 1200
+		o.PerClass = 1000
 	}
 	if o.MinLength <= 0 {
 		o.MinLength = 512
@@ -118,7 +118,7 @@ func logUni(rng *rand.Rand, lo, hi float64) float64 {
 
 // referencePlan lists every reference system with its training regime.
 // Sampling intervals of flows are drawn so that one characteristic
-// oscillation spans roughly 8–80 samples: finer sampling makes chaos look
+// oscillation spans roughly 8–120 samples: finer sampling makes chaos look
 // smooth over short records, coarser sampling makes it look like noise.
 var referencePlan = []planEntry{
 	// Chaotic maps.
@@ -142,23 +142,23 @@ var referencePlan = []planEntry{
 	{"delayed-logistic", generators.Chaotic, func(r *rand.Rand) map[string]float64 { return map[string]float64{"a": uni(r, 2.1, 2.27)} }},
 	// Chaotic flows.
 	{"lorenz", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
-		return map[string]float64{"rho": uni(r, 26, 60), "dt": logUni(r, 0.01, 0.1)}
+		return map[string]float64{"rho": uni(r, 26, 60), "dt": logUni(r, 0.005, 0.1)}
 	}},
 	{"rossler", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
-		return map[string]float64{"c": uni(r, 5, 9), "dt": logUni(r, 0.1, 0.7)}
+		return map[string]float64{"c": uni(r, 5, 9), "dt": logUni(r, 0.05, 0.7)}
 	}},
-	{"hyper-rossler", generators.Chaotic, func(r *rand.Rand) map[string]float64 { return map[string]float64{"dt": logUni(r, 0.1, 0.6)} }},
+	{"hyper-rossler", generators.Chaotic, func(r *rand.Rand) map[string]float64 { return map[string]float64{"dt": logUni(r, 0.05, 0.6)} }},
 	{"chua", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
-		return map[string]float64{"alpha": uni(r, 14.5, 16), "dt": logUni(r, 0.03, 0.2)}
+		return map[string]float64{"alpha": uni(r, 14.5, 16), "dt": logUni(r, 0.015, 0.2)}
 	}},
 	{"duffing", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
-		return map[string]float64{"gamma": uni(r, 0.35, 0.6), "dt": logUni(r, 0.1, 0.6)}
+		return map[string]float64{"gamma": uni(r, 0.35, 0.6), "dt": logUni(r, 0.05, 0.6)}
 	}},
 	{"lorenz96", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
 		return map[string]float64{"n": math.Round(uni(r, 6, 20)), "f": uni(r, 6, 16), "dt": logUni(r, 0.02, 0.15)}
 	}},
 	{"mackey-glass", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
-		return map[string]float64{"tau": uni(r, 17, 30), "dt": logUni(r, 0.5, 3)}
+		return map[string]float64{"tau": uni(r, 17, 30), "dt": logUni(r, 0.25, 3)}
 	}},
 	// Regular motion.
 	{"logistic-periodic", generators.Regular, func(r *rand.Rand) map[string]float64 {
@@ -168,10 +168,10 @@ var referencePlan = []planEntry{
 		return map[string]float64{"rho": uni(r, 330, 380), "dt": logUni(r, 0.005, 0.04)}
 	}},
 	{"rossler-periodic", generators.Regular, func(r *rand.Rand) map[string]float64 {
-		return map[string]float64{"c": uni(r, 2.5, 4.2), "dt": logUni(r, 0.1, 0.7)}
+		return map[string]float64{"c": uni(r, 2.5, 4.2), "dt": logUni(r, 0.05, 0.7)}
 	}},
 	{"van-der-pol", generators.Regular, func(r *rand.Rand) map[string]float64 {
-		return map[string]float64{"mu": uni(r, 0.2, 5), "dt": logUni(r, 0.05, 0.5)}
+		return map[string]float64{"mu": uni(r, 0.2, 5), "dt": logUni(r, 0.025, 0.5)}
 	}},
 	{"sine", generators.Regular, func(r *rand.Rand) map[string]float64 {
 		// The third harmonic must stay below Nyquist: period > 6 samples.

@@ -39,9 +39,12 @@ func (s Sine) Generate(n int, rng *rand.Rand) ([]float64, error) {
 		if a == 0 {
 			continue
 		}
-		w := 2 * math.Pi * float64(i+1) / s.Period
+		// The phase is taken from t mod Period, so that with a whole
+		// period the samples repeat exactly, not just up to rounding
+		// (visibility graphs and ordinal patterns see the difference).
+		w := 2 * math.Pi * float64(i+1)
 		for t := range out {
-			out[t] += a * math.Sin(w*float64(t)+phi)
+			out[t] += a * math.Sin(w*math.Mod(float64(t), s.Period)/s.Period+phi)
 		}
 	}
 	return out, nil

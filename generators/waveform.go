@@ -23,7 +23,7 @@ func (s Sawtooth) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	phi := rng.Float64()
 	out := make([]float64, n)
 	for t := range out {
-		u := float64(t)/s.Period + phi
+		u := math.Mod(float64(t), s.Period)/s.Period + phi
 		out[t] = u - math.Floor(u)
 	}
 	return out, nil
@@ -53,7 +53,7 @@ func (s Square) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	phi := rng.Float64()
 	out := make([]float64, n)
 	for t := range out {
-		u := float64(t)/s.Period + phi
+		u := math.Mod(float64(t), s.Period)/s.Period + phi
 		if u-math.Floor(u) < d {
 			out[t] = 1
 		}

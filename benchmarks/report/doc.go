@@ -1,0 +1,35 @@
+// Package report writes the single-trace HTML report of tracesift: one
+// self-contained file (inline CSS and SVG, no scripts, nothing fetched from
+// the network) that a device engineer can read on screen or print.
+//
+// Build analyses a trace with a classifier model and gathers everything the
+// report shows; (*Report).WriteHTML renders it. The sections, by HTML id
+// (see Sections):
+//
+//   - summary: file, samples, sample interval and units, moments, seed and
+//     model (no date, so the output is reproducible);
+//   - verdict: the class with its probabilities (bar chart), the features
+//     that drove it (Saabas contributions), warnings and the screening
+//     caution;
+//   - trace: the trace (a min/max envelope per pixel column when long) and
+//     the density of its normalised increments on a log axis beside the
+//     fitted Gaussian;
+//   - degrees: the HVG degree distribution on semi-log axes with the i.i.d.
+//     law P(k) = (1/3)(2/3)^{k−2} and the fitted exponential tail, and the
+//     NVG degree distribution on log–log axes with the fitted power law;
+//   - clustering: histograms of the local clustering coefficients of both
+//     graphs, and C(k) against the HVG law 2/k;
+//   - plane: the trace on the complexity–entropy plane (ordinal order 6 by
+//     default, with its bounds) among reference systems drawn from the
+//     generators at fixed seeds and at the trace's length;
+//   - surrogates: rank tests of a few statistics against IAAFT surrogates
+//     with Holm's adjustment (table and strip plot);
+//   - methods: how each part was computed, the model, references and the
+//     feature catalogue with the trace's values.
+//
+// Determinism: every random step takes its seed from Options.Seed (the
+// reference systems use fixed seeds of their own), parallel work is placed
+// by index, and the figures are drawn by a small SVG writer that rounds
+// every coordinate to 0.1 px, so the same trace, model and options give the
+// same bytes.
+package report

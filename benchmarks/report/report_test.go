@@ -1,0 +1,508 @@
+package report
+
+import (
+	"bytes"
+	"encoding/xml"
+	"errors"
+	"io"
+	"math"
+	"math/rand/v2"
+	"os"
+	"path/filepath"
+	"runtime"
+	"strings"
+	"sync"
+	"testing"
+
+	"tracesift/classifier"
+	"tracesift/features"
+	"tracesift/generators"
+	"tracesift/trace"
+)
+
+// testModel is a small forest trained once per test binary: 40 series per
+// class of at most 3000 samples, 40 trees (the embedded default model is
+// trained by the lead later and may be empty in a checkout).
+var testModel = sync.OnceValues(func() (*classifier.Model, error) {
+	ds, _, err := classifier.BuildReference(classifier.ReferenceOptions{PerClass: 40, MaxLength: 3000, Seed: 5}, features.Options{})
+	if err != nil {
+		return nil, err
+	}
+	m, err := classifier.Train(ds, classifier.Config{Trees: 40, Seed: 5,
+		Schema: classifier.Schema{Version: features.SchemaVersion, Hash: features.SchemaHash()}})
+	if err != nil {
+		return nil, err
+	}
+	m.Source = "test model (40 trees)"
+	return m, nil
+})
+
+func model(t testing.TB) *classifier.Model {
+	t.Helper()
+	m, err := testModel()
+	if err != nil {
+		t.Fatalf("training the test model: %v", err)
+	}
+	return m
+}
+
+// henonTrace is a Hénon x series dressed as a drain-current capture: 3000
+// samples at 10 kHz, in amperes around 5 µA.
+func henonTrace(t testing.TB, n int, scale, offset float64) trace.Trace {
+	t.Helper()
+	s, err := generators.Lookup("henon")
+	if err != nil {
+		t.Fatal(err)
+	}
+	x, err := s.Generate(n, nil, rand.New(rand.NewPCG(11, 12)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range x {
+		x[i] = scale*x[i] + offset
+	}
+	return trace.Trace{Values: x, Interval: 1e-4, TimeUnit: "s", Column: "Id", Unit: "A", Source: "henon-demo.csv"}
+}
+
+func render(t testing.TB, tr trace.Trace, opts Options) ([]byte, *Report) {
+	t.Helper()
+	r, err := Build(tr, model(t), opts)
+	if err != nil {
+		t.Fatalf("Build: %v", err)
+	}
+	var b bytes.Buffer
+	if err := r.WriteHTML(&b); err != nil {
+		t.Fatalf("WriteHTML: %v", err)
+	}
+	return b.Bytes(), r
+}
+
+// The shared report of the Hénon trace, rendered once for the checks below.
+var henonReport struct {
+	once sync.Once
+	html []byte
+	rep  *Report
+}
+
+func henonHTML(t *testing.T) ([]byte, *Report) {
+	henonReport.once.Do(func() {
+		henonReport.html, henonReport.rep = render(t, henonTrace(t, 3000, 1e-6, 5e-6), Options{Seed: 3, Generator: "tracesift test"})
+	})
+	if henonReport.html == nil {
+		t.Fatal("the shared report failed to render")
+	}
+	return henonReport.html, henonReport.rep
+}
+
+func TestReportIsWellFormedAndComplete(t *testing.T) {
+	html, rep := henonHTML(t)
+	ids := map[string]bool{}
+	svgs := 0
+	// Every figure draws its data inside the group clipped to the plot
+	// area; count what is drawn there.
+	var svgDepth, clipDepth int
+	drawn := -1
+	d := xml.NewDecoder(bytes.NewReader(html))
+	d.Strict = true // no auto-closing, no HTML entities: XHTML syntax only
+	for {
+		tok, err := d.Token()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			t.Fatalf("not well-formed XML: %v", err)
+		}
+		switch e := tok.(type) {
+		case xml.StartElement:
+			for _, a := range e.Attr {
+				if a.Name.Local == "id" {
+					if ids[a.Value] {
+						t.Errorf("duplicate id %q", a.Value)
+					}
+					ids[a.Value] = true
+				}
+			}
+			checkNoExternal(t, e)
+			switch {
+			case e.Name.Local == "svg":
+				if svgDepth == 0 && hasClass(e, "fig") {
+					svgs++
+					drawn = 0
+				}
+				svgDepth++
+			case clipDepth > 0:
+				clipDepth++
+				switch e.Name.Local {
+				case "path", "rect", "circle":
+					drawn++
+				}
+			case e.Name.Local == "g" && hasAttr(e, "clip-path"):
+				clipDepth = 1
+			}
+		case xml.EndElement:
+			switch {
+			case clipDepth > 0:
+				clipDepth--
+			case e.Name.Local == "svg":
+				svgDepth--
+				if svgDepth == 0 && drawn == 0 {
+					t.Errorf("figure %d draws nothing in its plot area", svgs)
+				}
+				drawn = -1 // contribution bars have no plot area
+			}
+		case xml.CharData:
+			if bytes.Contains(e, []byte("@import")) {
+				t.Error("style imports an external sheet")
+			}
+			if bytes.Contains(e, []byte("url(")) && !bytes.Contains(e, []byte("url(#")) {
+				t.Error("CSS references an external url()")
+			}
+		}
+	}
+	for _, id := range Sections() {
+		if !ids[id] {
+			t.Errorf("section %q missing", id)
+		}
+	}
+	// Figures: probabilities, trace, increments, HVG, NVG, clustering, C(k),
+	// plane, surrogates.
+	if svgs != 9 {
+		t.Errorf("%d figures, want 9", svgs)
+	}
+	for _, want := range []string{Caution, "hvg_lambda", "asym_abs", "Hénon", "fitted Gaussian", "(1/3)(2/3)^(k−2)", "tracesift test"} {
+		if !bytes.Contains(html, []byte(esc(want))) {
+			t.Errorf("report does not mention %q", want)
+		}
+	}
+	if len(rep.Failures) != 0 {
+		t.Errorf("panels failed on a clean Hénon trace: %v", rep.Failures)
+	}
+	for _, p := range []string{"http://", "https://", "<script", "<link"} {
+		if bytes.Contains(html, []byte(p)) {
+			t.Errorf("report contains %q", p)
+		}
+	}
+}
+
+func hasAttr(e xml.StartElement, name string) bool {
+	for _, a := range e.Attr {
+		if a.Name.Local == name {
+			return true
+		}
+	}
+	return false
+}
+
+func hasClass(e xml.StartElement, c string) bool {
+	for _, a := range e.Attr {
+		if a.Name.Local == "class" && strings.Contains(" "+a.Value+" ", " "+c+" ") {
+			return true
+		}
+	}
+	return false
+}
+
+// checkNoExternal fails on any attribute that would make a browser fetch
+// something: link elements, scripts, and src/href-like attributes that are
+// not in-document fragments.
+func checkNoExternal(t *testing.T, e xml.StartElement) {
+	t.Helper()
+	switch e.Name.Local {
+	case "link", "script", "iframe", "object", "embed", "img", "image", "use":
+		t.Errorf("element <%s> in a self-contained report", e.Name.Local)
+	}
+	for _, a := range e.Attr {
+		switch a.Name.Local {
+		case "href", "src", "srcset", "data", "action", "poster", "background":
+			if !strings.HasPrefix(a.Value, "#") && !strings.HasPrefix(a.Value, "data:") {
+				t.Errorf("<%s %s=%q> points outside the document", e.Name.Local, a.Name.Local, a.Value)
+			}
+		}
+		if strings.Contains(a.Value, "url(") && !strings.Contains(a.Value, "url(#") {
+			t.Errorf("<%s %s=%q> references an external url()", e.Name.Local, a.Name.Local, a.Value)
+		}
+	}
+}
+
+func TestReportIsDeterministic(t *testing.T) {
+	// Two statistics and 79 surrogates (the least for Holm over two at
+	// α = 0.05) keep this fast; the full default report is rendered once
+	// by the other tests.
+	opts := Options{Seed: 3, Stats: []string{"asym_abs", "hvg_lambda"}}
+	tr := henonTrace(t, 3000, 1e-6, 5e-6)
+	a, ra := render(t, tr, opts)
+	if ra.Surrogates.Count != 79 {
+		t.Errorf("%d surrogates, want 79 = ⌈2·2/0.05 − 1⌉", ra.Surrogates.Count)
+	}
+	// Same input and seed on one thread: the parallel parts must place their
+	// results by index, so the bytes cannot depend on the thread count.
+	prev := runtime.GOMAXPROCS(1)
+	b, _ := render(t, tr, opts)
+	runtime.GOMAXPROCS(prev)
+	if !bytes.Equal(a, b) {
+		i := 0
+		for i < len(a) && i < len(b) && a[i] == b[i] {
+			i++
+		}
+		lo := max(0, i-80)
+		t.Fatalf("two renderings differ at byte %d:\n%q\nvs\n%q", i, a[lo:min(len(a), i+80)], b[lo:min(len(b), i+80)])
+	}
+	opts.Seed = 4
+	if c, _ := render(t, tr, opts); bytes.Equal(a, c) {
+		t.Error("another seed gave the same report (the surrogates should differ)")
+	}
+}
+
+// TestReportScaleFree checks the project rule that units never change a
+// verdict: the report of 10⁶·x + 3 (amperes → microamperes plus an offset)
+// has the same verdict, plane point and graph fits as that of x.
+func TestReportScaleFree(t *testing.T) {
+	opts := Options{Seed: 3, Surrogates: -1}
+	_, a := render(t, henonTrace(t, 3000, 1e-6, 5e-6), opts)
+	_, b := render(t, henonTrace(t, 3000, 1, 3), opts)
+	if a.Verdict.Class != b.Verdict.Class {
+		t.Errorf("verdict %s vs %s", a.Verdict.Class, b.Verdict.Class)
+	}
+	for i := range a.Verdict.Probabilities {
+		// Features are standardised first; only rounding of a·x + b differs.
+		if d := math.Abs(a.Verdict.Probabilities[i] - b.Verdict.Probabilities[i]); d > 1e-9 {
+			t.Errorf("P(%s) differs by %g", a.Verdict.Classes[i], d)
+		}
+	}
+	// Ordinal patterns depend only on order relations (Bandt & Pompe 2002),
+	// unchanged by an increasing affine map away from exact ties.
+	if a.Plane.Trace.Entropy != b.Plane.Trace.Entropy || a.Plane.Trace.Complexity != b.Plane.Trace.Complexity {
+		t.Errorf("plane point (%g, %g) vs (%g, %g)", a.Plane.Trace.Entropy, a.Plane.Trace.Complexity, b.Plane.Trace.Entropy, b.Plane.Trace.Complexity)
+	}
+	if a.HVG.Tail == nil || b.HVG.Tail == nil || a.HVG.Tail.Lambda != b.HVG.Tail.Lambda {
+		t.Errorf("HVG tail fits differ: %+v vs %+v", a.HVG.Tail, b.HVG.Tail)
+	}
+	if a.Increments.Stats.ExcessKurtosis-b.Increments.Stats.ExcessKurtosis > 1e-9 {
+		t.Errorf("increment kurtosis %g vs %g", a.Increments.Stats.ExcessKurtosis, b.Increments.Stats.ExcessKurtosis)
+	}
+}
+
+// TestReportContent checks the computed panels against known results on
+// the Hénon map.
+func TestReportContent(t *testing.T) {
+	_, r := henonHTML(t)
+	// Hénon (a = 1.4, b = 0.3) is chaotic (λ1 = 0.419 > 0; Sprott 2003,
+	// memory); a model trained on the reference set must say so.
+	if r.Verdict.Class != "chaotic" {
+		t.Errorf("verdict %s (probabilities %v), want chaotic", r.Verdict.Class, r.Verdict.Probabilities)
+	}
+	// The HVG of a chaotic series has λ < ln(3/2) (Luque et al., Phys. Rev.
+	// E 80 (2009) 046103; Lacasa & Toral, Phys. Rev. E 82 (2010) 036120).
+	if r.HVG.Tail == nil || !(r.HVG.Tail.Lambda < math.Log(1.5)) {
+		t.Errorf("HVG tail %+v, want λ < ln(3/2)", r.HVG.Tail)
+	}
+	// Chaotic maps lie near the upper bound of the complexity–entropy plane
+	// (Rosso et al., Phys. Rev. Lett. 99 (2007) 154102): well above white
+	// noise, which lies near C = 0, and above the midpoint of the bounds.
+	var white ReferencePoint
+	for _, p := range r.Plane.References {
+		if p.System == "white" {
+			white = p
+		}
+		if p.Error != "" {
+			t.Errorf("reference %s failed: %s", p.Label, p.Error)
+		}
+	}
+	tr := r.Plane.Trace
+	if !(tr.Complexity > white.Complexity+0.1) || !(tr.Complexity > (tr.MinComplexity+tr.MaxComplexity)/2) {
+		t.Errorf("Hénon at C = %.3f (bounds %.3f–%.3f), white at C = %.3f", tr.Complexity, tr.MinComplexity, tr.MaxComplexity, white.Complexity)
+	}
+	// Time-reversal asymmetry of dissipative chaos is far outside the IAAFT
+	// null (Theiler et al., Physica D 58 (1992) 77; Schreiber & Schmitz,
+	// Physica D 142 (2000) 346): the rank test reaches its smallest p.
+	for _, res := range r.Surrogates.Tests {
+		if res.Stat == "asym_abs" && !res.Significant {
+			t.Errorf("asym_abs not significant for Hénon: %+v", res)
+		}
+	}
+	// Four statistics at α = 0.05, two-sided: M = ⌈2·4/0.05 − 1⌉ = 159
+	// (smallest rank p 2/(M+1), times 4 by Holm; Theiler et al. 1992, Holm
+	// 1979), derived.
+	if r.Surrogates.Count != 159 || HolmSurrogates(4, 0.05) != 159 || HolmSurrogates(1, 0.05) != 39 {
+		t.Errorf("%d surrogates, want 159", r.Surrogates.Count)
+	}
+}
+
+func TestReportSkipsAndLongTraces(t *testing.T) {
+	// A trace longer than the graph and surrogate caps: the panels use the
+	// middle stretch and say so; with Surrogates < 0 the test is skipped.
+	tr := henonTrace(t, 5000, 1, 0)
+	tr.Interval, tr.TimeUnit, tr.Unit = 0, "", ""
+	html, r := render(t, tr, Options{Seed: 1, Surrogates: -1, GraphLength: 1000})
+	if r.HVG.Nodes != 1000 || r.HVG.Offset != 2000 {
+		t.Errorf("graph on %d nodes from %d, want 1000 from 2000", r.HVG.Nodes, r.HVG.Offset)
+	}
+	if !r.Trace.Reduced || len(r.Trace.Lo) != displayColumns {
+		t.Errorf("trace of 5000 samples not reduced to %d columns", displayColumns)
+	}
+	for _, want := range []string{"Skipped at the caller", "middle 1000 samples", "unknown (no time column)", "sample</text>"} {
+		if !bytes.Contains(html, []byte(want)) {
+			t.Errorf("report lacks %q", want)
+		}
+	}
+}
+
+func TestOptionErrors(t *testing.T) {
+	tr := henonTrace(t, 600, 1, 0)
+	m := model(t)
+	for _, o := range []Options{{Order: 9}, {Stats: []string{"nosuch"}}, {Alpha: 2}, {Method: "bogus"}, {GraphLength: 10}} {
+		if _, err := Build(tr, m, o); !errors.Is(err, ErrOption) {
+			t.Errorf("%+v: err %v, want ErrOption", o, err)
+		}
+	}
+	if _, err := Build(tr, nil, Options{}); !errors.Is(err, classifier.ErrEmptyModel) {
+		t.Errorf("nil model: %v", err)
+	}
+	short := trace.Trace{Values: tr.Values[:100], Source: "short"}
+	if _, err := Build(short, m, Options{}); !errors.Is(err, features.ErrTooShort) {
+		t.Errorf("short trace: %v", err)
+	}
+}
+
+func TestTraceEnvelopeKeepsSpikes(t *testing.T) {
+	x := make([]float64, 100000)
+	x[31337] = 7
+	x[77777] = -5
+	p := traceEnvelope(x, 0.5, 640)
+	var hi, lo float64
+	for i := range p.Lo {
+		hi, lo = math.Max(hi, p.Hi[i]), math.Min(lo, p.Lo[i])
+	}
+	// A min/max envelope keeps the extremes exactly (decimation would lose
+	// single-sample spikes).
+	if hi != 7 || lo != -5 || len(p.T) != 640 || !p.Reduced {
+		t.Errorf("envelope: max %g min %g, %d columns", hi, lo, len(p.T))
+	}
+	// Column c covers samples [c·n/640, (c+1)·n/640); its time is the
+	// centre of that stretch in units of the interval.
+	if want := float64(0+156-1) / 2 * 0.5; p.T[0] != want {
+		t.Errorf("first column at t = %g, want %g", p.T[0], want)
+	}
+	short := traceEnvelope([]float64{1, 2, 3}, 0, 640)
+	if short.Reduced || len(short.T) != 3 || short.T[2] != 2 {
+		t.Errorf("short trace: %+v", short)
+	}
+}
+
+func TestLatticeBins(t *testing.T) {
+	// Increments of an integer-valued trace, standardised: the levels lie
+	// on a lattice of spacing 1/sd; every level gets its own bin, centred.
+	z := []float64{-1.5, 0, 0, 1.5, 3, -1.5, 0}
+	o := latticeBins(z)
+	if o.Bins != 4 || o.Min != -2.25 || o.Max != 3.75 {
+		t.Errorf("lattice bins %+v, want 4 bins on [-2.25, 3.75]", o)
+	}
+	// Continuous values: no lattice.
+	if o := latticeBins([]float64{0.1, 0.37, 1.2, -0.4, 2.9}); o.Bins != 0 {
+		t.Errorf("continuous values got lattice bins %+v", o)
+	}
+}
+
+func TestHurwitzZeta(t *testing.T) {
+	cases := []struct {
+		s, q, want float64
+		src        string
+	}{
+		{2, 1, math.Pi * math.Pi / 6, "Euler: ζ(2) = π²/6"},
+		{3, 1, 1.2020569031595942, "Apéry's constant ζ(3) (memory)"},
+		{4, 1, math.Pow(math.Pi, 4) / 90, "Euler: ζ(4) = π⁴/90"},
+		{2, 5, math.Pi*math.Pi/6 - 1 - 0.25 - 1.0/9 - 1.0/16, "ζ(s, q+1) = ζ(s, q) − q^{−s}, derived"},
+		{2.5, 3, 0, "direct sum, see below"},
+	}
+	for _, c := range cases {
+		want := c.want
+		if want == 0 {
+			// Reference by brute force: Σ_{k<10^6} (k+q)^{−s} plus the
+			// integral tail ∫ from 10^6 − ½ (midpoint rule, error O(N^{−s−2})).
+			for k := 1e6 - 1; k >= 0; k-- {
+				want += math.Pow(k+c.q, -c.s)
+			}
+			want += math.Pow(1e6+c.q-0.5, 1-c.s) / (c.s - 1)
+		}
+		if got := hurwitzZeta(c.s, c.q); math.Abs(got-want) > 1e-10*want {
+			t.Errorf("ζ(%g, %g) = %.15g, want %.15g (%s)", c.s, c.q, got, want, c.src)
+		}
+	}
+}
+
+func TestIIDLawSumsToOne(t *testing.T) {
+	// Σ_{k≥2} (1/3)(2/3)^{k−2} = (1/3)/(1 − 2/3) = 1 and ⟨k⟩ = 4 (Luque et
+	// al., Phys. Rev. E 80 (2009) 046103).
+	var s, m float64
+	for k := 0; k < 200; k++ {
+		s += iidHVG(k)
+		m += float64(k) * iidHVG(k)
+	}
+	if math.Abs(s-1) > 1e-12 || math.Abs(m-4) > 1e-9 {
+		t.Errorf("Σ P(k) = %g, ⟨k⟩ = %g, want 1 and 4", s, m)
+	}
+}
+
+func TestTicksAndNumbers(t *testing.T) {
+	cases := []struct {
+		in   float64
+		want string
+	}{{0.04, "0"}, {-0.04, "0"}, {12.34, "12.3"}, {-3.96, "-4"}, {100, "100"}}
+	for _, c := range cases {
+		if got := num(c.in); got != c.want {
+			t.Errorf("num(%g) = %q, want %q", c.in, got, c.want)
+		}
+	}
+	var got []string
+	for _, tk := range ticks(scale{-0.3, 1.7, false}) {
+		got = append(got, tk.label)
+	}
+	if strings.Join(got, " ") != "0.0 0.5 1.0 1.5" {
+		t.Errorf("linear ticks %v", got)
+	}
+	got = nil
+	for _, tk := range ticks(scale{1e-4, 1, true}) {
+		if !tk.minor {
+			got = append(got, tk.label)
+		}
+	}
+	if len(got) != 5 || got[4] != "1" || !strings.Contains(got[0], "−4") {
+		t.Errorf("log ticks %v", got)
+	}
+	if f, l := valueAxis(Summary{Column: "Id", Unit: "A"}, 8.9e-6); math.Abs(f-1e6) > 1e-6 || l != "Id (µA)" {
+		t.Errorf("value axis %g %q", f, l)
+	}
+	if f, l := timeAxis(Summary{Interval: 1e-4, TimeUnit: "s"}, 0.4); math.Abs(f-1e3) > 1e-9 || l != "time (ms)" {
+		t.Errorf("time axis %g %q", f, l)
+	}
+}
+
+// TestRenderDemo writes the report of a demo trace for a look in a browser
+// (scripts/render-report.sh); it runs only when REPORT_OUT names the file.
+func TestRenderDemo(t *testing.T) {
+	out := os.Getenv("REPORT_OUT")
+	if out == "" {
+		t.Skip("set REPORT_OUT=path.html (and optionally REPORT_IN=trace.csv) to render a report")
+	}
+	in := os.Getenv("REPORT_IN")
+	if in == "" {
+		in = filepath.Join("..", "..", "testdata", "demo", "stressed", "D01_stressed_Vg1.20.csv")
+	}
+	tr, err := trace.ReadFile(in, trace.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Name the file relative to the repository root when it lies inside.
+	if root, err := filepath.Abs(filepath.Join("..", "..")); err == nil {
+		if abs, err := filepath.Abs(in); err == nil {
+			if rel, err := filepath.Rel(root, abs); err == nil && !strings.HasPrefix(rel, "..") {
+				tr.Source = filepath.ToSlash(rel)
+			}
+		}
+	}
+	html, _ := render(t, tr, Options{Seed: 1, Generator: "tracesift (report test, small in-process model)"})
+	if err := os.WriteFile(out, html, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("wrote %s (%d bytes)", out, len(html))
+}

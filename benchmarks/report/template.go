@@ -1,0 +1,328 @@
+package report
+
+// pageTemplate is the HTML of the report. Styling goals: plain and
+// readable on screen and on paper — dark text on white, thin rules, one
+// accent colour, figures at most one text width wide; in print every
+// section starts a new page and no figure or table row is split.
+const pageTemplate = `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8"/>
+<meta name="viewport" content="width=device-width, initial-scale=1"/>
+<meta name="generator" content="tracesift"/>
+<title>{{.Title}}</title>
+<style>
+:root { --ink: #1c232b; --muted: #56606b; --rule: #d3d8de; --accent: #24486b; }
+* { box-sizing: border-box; }
+html { background: #ffffff; }
+body { margin: 0 auto; max-width: 60rem; padding: 1.5rem 1.5rem 3rem; color: var(--ink); background: #ffffff;
+  font: 15px/1.55 "DejaVu Serif", Georgia, "Times New Roman", serif; }
+h1, h2, h3, nav, table, figcaption, dl, .kicker, .verdict, footer { font-family: "DejaVu Sans", Helvetica, Arial, sans-serif; }
+h1 { font-size: 1.45rem; line-height: 1.25; margin: .25rem 0 1rem; overflow-wrap: anywhere; }
+h2 { font-size: 1.2rem; margin: 2.4rem 0 .8rem; padding-bottom: .25rem; border-bottom: 2px solid var(--accent); }
+h2 .no { color: var(--accent); margin-right: .5rem; }
+h3 { font-size: 1rem; margin: 1.4rem 0 .4rem; }
+p { margin: .5rem 0; }
+.kicker { margin: 0; font-size: .75rem; letter-spacing: .09em; text-transform: uppercase; color: var(--muted); }
+dl.facts { display: grid; grid-template-columns: max-content 1fr max-content 1fr; gap: .2rem 1.2rem; margin: .5rem 0 1rem; font-size: .88rem; }
+dl.facts dt { color: var(--muted); }
+dl.facts dd { margin: 0; overflow-wrap: anywhere; }
+dl.two { grid-template-columns: max-content 1fr; }
+nav { font-size: .85rem; border-top: 1px solid var(--rule); border-bottom: 1px solid var(--rule); padding: .4rem 0; }
+nav a { color: var(--accent); text-decoration: none; margin-right: 1rem; white-space: nowrap; }
+figure { margin: 1rem 0 1.2rem; break-inside: avoid; page-break-inside: avoid; }
+svg.fig { display: block; max-width: 100%; height: auto; }
+svg.bar { display: block; }
+figcaption { margin-top: .35rem; font-size: .82rem; line-height: 1.45; color: var(--muted); }
+.pair { display: grid; grid-template-columns: repeat(auto-fit, minmax(24rem, 1fr)); gap: 0 1.5rem; align-items: start; }
+table { width: 100%; border-collapse: collapse; font-size: .84rem; margin: .4rem 0 1rem; }
+th, td { padding: .28rem .5rem; text-align: left; vertical-align: top; border-bottom: 1px solid var(--rule); }
+th { font-weight: 600; border-bottom: 1.5px solid var(--ink); }
+td.n, th.n { text-align: right; white-space: nowrap; font-variant-numeric: tabular-nums; }
+td.code, th.code { white-space: nowrap; font-family: "DejaVu Sans Mono", Menlo, Consolas, monospace; font-size: .94em; }
+tr.rejected td { font-weight: 600; }
+table.compact { font-size: .76rem; }
+table.compact td, table.compact th { padding: .18rem .4rem; }
+.verdict { margin: 1rem 0; padding: .7rem 1rem; border: 1.5px solid; border-left-width: 9px; }
+.verdict .cls { margin: 0; font-size: 1.7rem; font-weight: 700; line-height: 1.2; text-transform: capitalize; }
+.verdict p { margin: .25rem 0 0; }
+.cls-chaotic { color: #b3412a; border-color: #b3412a; }
+.cls-stochastic { color: #2f6f8f; border-color: #2f6f8f; }
+.cls-regular { color: #5b8a2e; border-color: #5b8a2e; }
+.cls-undetermined { color: #555555; border-color: #6f6f6f; }
+.txt-chaotic { color: #b3412a; }
+.txt-stochastic { color: #2f6f8f; }
+.txt-regular { color: #5b8a2e; }
+.verdict p.line { color: var(--ink); font-size: .95rem; }
+.caution { margin: 1.2rem 0; padding: .6rem 1rem; border: 1px solid var(--ink); font-size: .92rem; }
+ul.notes { margin: .3rem 0 .8rem; padding-left: 1.3rem; font-size: .9rem; }
+.muted { color: var(--muted); }
+.failed { color: #8a2b16; font-size: .9rem; }
+ol.refs { font-size: .84rem; padding-left: 1.4rem; }
+footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rule); font-size: .78rem; color: var(--muted); }
+@page { margin: 14mm 13mm; }
+@media print {
+  html { font-size: 12px; background: #ffffff; }
+  body { max-width: none; padding: 0; font-size: 9.5pt; line-height: 1.4; background: #ffffff; }
+  nav { display: none; }
+  section { break-before: page; page-break-before: always; }
+  #verdict { break-before: auto; page-break-before: auto; }
+  h2 { margin-top: 0; break-after: avoid; page-break-after: avoid; }
+  #verdict h2 { margin-top: 1.2rem; }
+  h3 { margin-top: .9rem; break-after: avoid; page-break-after: avoid; }
+  figure { margin: .5rem 0 .8rem; }
+  figcaption { font-size: 7.5pt; }
+  .pair { grid-template-columns: 1fr 1fr; gap: 0 5mm; }
+  svg.fig { max-height: 100mm; }
+  table { font-size: 8pt; }
+  table.compact { font-size: 7.5pt; }
+  ol.refs { font-size: 8pt; }
+  tr, .verdict, .caution { break-inside: avoid; page-break-inside: avoid; }
+  a { color: inherit; text-decoration: none; }
+}
+</style>
+</head>
+<body>
+<header id="summary">
+<p class="kicker">{{.Kicker}}</p>
+<h1>{{.Source}}</h1>
+<dl class="facts">
+{{- range .Facts}}
+<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
+{{- end}}
+</dl>
+{{- if .TraceWarnings}}
+<p><strong>Notes from reading the file:</strong></p>
+<ul class="notes">
+{{- range .TraceWarnings}}
+<li>{{.}}</li>
+{{- end}}
+</ul>
+{{- end}}
+<nav>
+{{- range .Nav}}
+<a href="#{{.Label}}">{{.Value}}</a>
+{{- end}}
+</nav>
+</header>
+
+<section id="verdict">
+<h2><span class="no">1</span>Verdict</h2>
+<div class="verdict cls-{{.Class}}">
+<p class="cls">{{.Class}}</p>
+<p class="line">{{.ClassLine}}</p>
+</div>
+<p class="caution"><strong>Caution.</strong> {{.Caution}}</p>
+<figure>
+{{.ProbFig.SVG}}
+<figcaption>{{.ProbFig.Caption}}</figcaption>
+</figure>
+{{- if .Reasons}}
+<p><strong>Why undetermined:</strong></p>
+<ul class="notes">
+{{- range .Reasons}}
+<li>{{.}}</li>
+{{- end}}
+</ul>
+{{- end}}
+<h3>Warnings</h3>
+{{- if .Warnings}}
+<ul class="notes">
+{{- range .Warnings}}
+<li>{{.}}</li>
+{{- end}}
+</ul>
+{{- else}}
+<p class="muted">No recording-quality warnings (length, clipping, quantisation, drift, mains interference).</p>
+{{- end}}
+<h3>Features that drove the verdict</h3>
+<table>
+<thead><tr><th class="code">feature</th><th class="n">value</th><th class="n">contribution</th><th></th><th>meaning</th></tr></thead>
+<tbody>
+{{- range .Drivers}}
+<tr><td class="code">{{.Feature}}</td><td class="n">{{.Value}}</td><td class="n">{{.Contribution}}</td><td>{{.Bar}}</td><td>{{.Meaning}}</td></tr>
+{{- end}}
+</tbody>
+</table>
+<p class="muted" style="font-size: .82rem">{{.DriversNote}}</p>
+</section>
+
+<section id="trace">
+<h2><span class="no">2</span>The trace and its increments</h2>
+{{- range .TraceFailures}}
+<p class="failed">Not shown: {{.}}</p>
+{{- end}}
+{{- with .TraceFig}}
+<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>
+{{- end}}
+{{- with .IncFig}}
+<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>
+{{- end}}
+</section>
+
+<section id="degrees">
+<h2><span class="no">3</span>Visibility graphs: degree distributions</h2>
+<p>Each sample becomes a node. In the horizontal visibility graph two samples are linked when every sample between them is lower than both; in the natural visibility graph, when every sample between them lies below the straight line joining them. {{.DegreesNote}}</p>
+{{- range .DegreesFailures}}
+<p class="failed">Not shown: {{.}}</p>
+{{- end}}
+<div class="pair">
+{{- with .HVGFig}}
+<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>
+{{- end}}
+{{- with .NVGFig}}
+<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>
+{{- end}}
+</div>
+{{- if .GraphRows}}
+<dl class="facts two">
+{{- range .GraphRows}}
+<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
+{{- end}}
+</dl>
+{{- end}}
+</section>
+
+<section id="clustering">
+<h2><span class="no">4</span>Visibility graphs: local clustering</h2>
+<div class="pair">
+{{- with .ClustFig}}
+<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>
+{{- end}}
+{{- with .CkFig}}
+<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>
+{{- end}}
+</div>
+{{- if .ClusteringNote}}
+<p>{{.ClusteringNote}}</p>
+{{- else}}
+<p class="failed">Not shown: the visibility graphs could not be built (see section 3).</p>
+{{- end}}
+</section>
+
+<section id="plane">
+<h2><span class="no">5</span>Complexity–entropy plane</h2>
+{{- range .PlaneFailures}}
+<p class="failed">Not shown: {{.}}</p>
+{{- end}}
+{{- with .PlaneFig}}
+<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>
+{{- end}}
+{{- if .PlaneNote}}
+<p>{{.PlaneNote}}</p>
+{{- end}}
+{{- if .RefRows}}
+<table class="compact">
+<thead><tr><th>reference</th><th class="code">system</th><th>class</th><th class="n">entropy H</th><th class="n">complexity C</th></tr></thead>
+<tbody>
+{{- range .RefRows}}
+<tr><td>{{.Label}}</td><td class="code">{{.System}}</td><td class="txt-{{.Class}}">{{.Class}}</td><td class="n">{{.Entropy}}</td><td class="n">{{.Complexity}}</td></tr>
+{{- end}}
+</tbody>
+</table>
+{{- end}}
+</section>
+
+<section id="surrogates">
+<h2><span class="no">6</span>Surrogate tests</h2>
+{{- if .SurrogatesSkipped}}
+<p class="muted">Skipped at the caller's request.</p>
+{{- end}}
+{{- range .SurrogateFailures}}
+<p class="failed">Not computed: {{.}}</p>
+{{- end}}
+{{- if .SurrogateIntro}}
+<p>{{.SurrogateIntro}}</p>
+<table>
+<thead><tr><th class="code">statistic</th><th class="n">observed</th><th class="n">surrogates (mean ± sd)</th><th class="n">z</th><th class="n">p</th><th class="n">Holm p</th><th>verdict</th></tr></thead>
+<tbody>
+{{- range .SurrogateRows}}
+<tr{{if .Rejected}} class="rejected"{{end}}><td class="code">{{.Stat}}</td><td class="n">{{.Observed}}</td><td class="n">{{.Surrogates}}</td><td class="n">{{.Z}}</td><td class="n">{{.P}}</td><td class="n">{{.PHolm}}</td><td>{{.Verdict}}</td></tr>
+{{- end}}
+</tbody>
+</table>
+{{- end}}
+{{- with .SurrogateFig}}
+<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>
+{{- end}}
+{{- if .SurrogateNotes}}
+<ul class="notes">
+{{- range .SurrogateNotes}}
+<li>{{.}}</li>
+{{- end}}
+</ul>
+{{- end}}
+</section>
+
+<section id="methods">
+<h2><span class="no">7</span>Methods and references</h2>
+<p><strong>Verdict.</strong> The trace is standardised (so its units do not matter) and described by the feature vector below; a random forest (Breiman 2001) trained on labelled reference systems votes for chaotic, stochastic or regular dynamics. Traces longer than the screening window are measured in evenly spaced windows whose probabilities are averaged. The verdict is undetermined when the top probability is below the model's threshold or features lie outside the range the model was trained on. Feature contributions follow Saabas (2014).</p>
+<p><strong>Increments.</strong> Histogram with the Freedman–Diaconis bin width on a symmetric range (40 bins for short traces); the Gaussian has the increments' mean and standard deviation. The Kolmogorov–Smirnov distance is judged against the Lilliefors critical value because the Gaussian is fitted (Lilliefors 1967).</p>
+<p><strong>Visibility graphs.</strong> Natural visibility (Lacasa et al. 2008) and horizontal visibility (Luque et al. 2009); HVG tail rate by maximum likelihood of a geometric tail with k_min chosen by the Kolmogorov–Smirnov distance (Lacasa &amp; Toral 2010); NVG power-law exponent by discrete maximum likelihood (Clauset, Shalizi &amp; Newman 2009); local clustering by triangle counting (Watts &amp; Strogatz 1998).</p>
+<p><strong>Complexity–entropy plane.</strong> Ordinal patterns (Bandt &amp; Pompe 2002), normalised permutation entropy and Jensen–Shannon statistical complexity (Rosso et al. 2007), bounds after Martin, Plastino &amp; Rosso (2006). Reference series come from tracesift's generators at fixed seeds and the trace's length.</p>
+<p><strong>Surrogates.</strong> Iterated amplitude-adjusted Fourier transform surrogates (Schreiber &amp; Schmitz 1996) keep the values and, closely, the power spectrum: they embody a static monotone transform of a linear Gaussian process. Rank-based p-values (Theiler et al. 1992; Schreiber &amp; Schmitz 2000), Holm's step-down adjustment across statistics (Holm 1979).</p>
+<h3>Model</h3>
+<dl class="facts two">
+{{- range .ModelFacts}}
+<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
+{{- end}}
+</dl>
+<h3>References</h3>
+<ol class="refs">
+<li>Bandt C, Pompe B. Permutation entropy: a natural complexity measure for time series. Phys. Rev. Lett. 88 (2002) 174102.</li>
+<li>Breiman L. Random forests. Machine Learning 45 (2001) 5.</li>
+<li>Clauset A, Shalizi CR, Newman MEJ. Power-law distributions in empirical data. SIAM Review 51 (2009) 661.</li>
+<li>Holm S. A simple sequentially rejective multiple test procedure. Scand. J. Statist. 6 (1979) 65.</li>
+<li>Lacasa L, Luque B, Ballesteros F, Luque J, Nuño JC. From time series to complex networks: the visibility graph. PNAS 105 (2008) 4972.</li>
+<li>Lacasa L, Luque B, Luque J, Nuño JC. The visibility graph: a new method for estimating the Hurst exponent of fractional Brownian motion. EPL 86 (2009) 30001 (memory).</li>
+<li>Lacasa L, Toral R. Description of stochastic and chaotic series using visibility graphs. Phys. Rev. E 82 (2010) 036120.</li>
+<li>Lilliefors HW. On the Kolmogorov–Smirnov test for normality with mean and variance unknown. J. Am. Stat. Assoc. 62 (1967) 399 (memory).</li>
+<li>Luque B, Lacasa L, Ballesteros F, Luque J. Horizontal visibility graphs: exact results for random time series. Phys. Rev. E 80 (2009) 046103.</li>
+<li>Martin MT, Plastino A, Rosso OA. Generalized statistical complexity measures: geometrical and analytical properties. Physica A 369 (2006) 439 (memory).</li>
+<li>Núñez AM, Lacasa L, Gómez JP, Luque B. Visibility algorithms: a short review (2012) (memory).</li>
+<li>Rosso OA, Larrondo HA, Martin MT, Plastino A, Fuentes MA. Distinguishing noise from chaos. Phys. Rev. Lett. 99 (2007) 154102.</li>
+<li>Saabas A. Interpreting random forests (2014), blog post (memory).</li>
+<li>Schreiber T, Schmitz A. Improved surrogate data for nonlinearity tests. Phys. Rev. Lett. 77 (1996) 635.</li>
+<li>Schreiber T, Schmitz A. Surrogate time series. Physica D 142 (2000) 346.</li>
+<li>Theiler J, Eubank S, Longtin A, Galdrikian B, Farmer JD. Testing for nonlinearity in time series: the method of surrogate data. Physica D 58 (1992) 77.</li>
+<li>Watts DJ, Strogatz SH. Collective dynamics of small-world networks. Nature 393 (1998) 440.</li>
+</ol>
+<h3>Feature vector and catalogue</h3>
+<p class="muted" style="font-size: .84rem">Every feature the classifier reads, with this trace's value (the median over windows for long traces), its meaning and its source.</p>
+<table class="compact">
+<thead><tr><th class="code">feature</th><th>family</th><th class="n">value</th><th>meaning</th><th>reference</th></tr></thead>
+<tbody>
+{{- range .Features}}
+<tr><td class="code">{{.Name}}</td><td>{{.Family}}</td><td class="n">{{.Value}}</td><td>{{.Meaning}}{{if .Missing}}<br/><span class="muted">missing for this trace: {{.Missing}}</span>{{end}}</td><td>{{.Reference}}</td></tr>
+{{- end}}
+</tbody>
+</table>
+</section>
+<footer>{{.Footer}}</footer>
+</body>
+</html>
+`

@@ -1,0 +1,41 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+
+	"tracesift/classifier"
+	"tracesift/features"
+	"tracesift/models"
+)
+
+// currentSchema is the identity of the running feature catalogue, stored in
+// every model trained here and checked on every model loaded.
+func currentSchema() classifier.Schema {
+	return classifier.Schema{Version: features.SchemaVersion, Hash: features.SchemaHash()}
+}
+
+// loadModel returns the model at path, or the embedded default when path is
+// empty, refusing one trained on another feature schema.
+func loadModel(path string) (*classifier.Model, error) {
+	var (
+		m   *classifier.Model
+		err error
+	)
+	if path == "" {
+		m, err = classifier.Read(bytes.NewReader(models.Default()))
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", models.DefaultName, err)
+		}
+		m.Source = models.DefaultName
+	} else if m, err = classifier.Load(path); err != nil {
+		return nil, err
+	}
+	if err := m.CheckSchema(currentSchema()); err != nil {
+		if path == "" {
+			return nil, fmt.Errorf("%w (rebuild it with: %s)", err, models.DefaultCommand)
+		}
+		return nil, fmt.Errorf("%w (retrain it with this version of tracesift)", err)
+	}
+	return m, nil
+}
