@@ -27,8 +27,11 @@ type ReferenceOptions struct {
 	// (defaults 512 and 20000).
 	MinLength, MaxLength int
 	// NoisyFraction is the fraction of series that get Gaussian
-	// observational noise (default 0.5); their SNR is drawn uniformly from
-	// [MinSNR, MaxSNR] dB (defaults 10 and 40).
+	// observational noise (default 0.6); their SNR in dB is drawn from
+	// [MinSNR, MaxSNR] (defaults 10 and 40) as MinSNR + (MaxSNR − MinSNR)·u²
+	// with u uniform, so that the hard, noisy end of the range is sampled
+	// more densely than the easy one (half the noisy series lie below
+	// MinSNR + 0.25·(MaxSNR − MinSNR), i.e. 17.5 dB).
 	NoisyFraction  float64
 	MinSNR, MaxSNR float64
 	// Systems restricts the set to these systems (default: every system of
@@ -57,7 +60,7 @@ func (o ReferenceOptions) withDefaults() ReferenceOptions {
 		o.MaxLength = 20000
 	}
 	if o.NoisyFraction == 0 {
-		o.NoisyFraction = 0.5
+		o.NoisyFraction = 0.6
 	}
 	if o.MinSNR == 0 {
 		o.MinSNR = 10
@@ -265,7 +268,8 @@ func ReferencePlan(opts ReferenceOptions) ([]ReferenceSeries, error) {
 			n := int(math.Round(logUni(rng, float64(o.MinLength), float64(o.MaxLength))))
 			snr := math.Inf(1)
 			if rng.Float64() < o.NoisyFraction {
-				snr = uni(rng, o.MinSNR, o.MaxSNR)
+				u := rng.Float64()
+				snr = o.MinSNR + (o.MaxSNR-o.MinSNR)*u*u
 			}
 			seed := rng.Uint64()
 			cl, err := sys.Class(p)
@@ -364,14 +368,14 @@ func BuildReference(opts ReferenceOptions, fopts features.Options) (Dataset, []R
 		}()
 	}
 	wg.Wait()
-	// A series whose orbit escaped or came out constant for its draw is
+	// A series whose orbit escaped or settled on a fixed point for its draw is
 	// dropped (deterministically: the same seed drops the same series);
 	// any other failure is a bug and stops the build.
 	kept := ds.Subset(nil)
 	var keptPlan []ReferenceSeries
 	for i, err := range errs {
 		if err != nil {
-			if errors.Is(err, generators.ErrDiverged) || errors.Is(err, features.ErrConstant) {
+			if errors.Is(err, generators.ErrDiverged) || errors.Is(err, generators.ErrConstant) || errors.Is(err, features.ErrConstant) {
 				continue
 			}
 			return Dataset{}, nil, err
@@ -404,6 +408,6 @@ func describeReference(o ReferenceOptions, plan []ReferenceSeries) string {
 	for _, c := range classes {
 		parts = append(parts, fmt.Sprintf("%d %s", count[c], c))
 	}
-	return fmt.Sprintf("reference set (seed %d): %d series from %d systems (%s); lengths %d–%d log-uniform; %.0f%% with observational noise at %g–%g dB SNR",
+	return fmt.Sprintf("reference set (seed %d): %d series from %d systems (%s); lengths %d–%d log-uniform; %.0f%% with observational noise at %g–%g dB SNR, denser at the noisy end",
 		o.Seed, len(plan), len(systems), strings.Join(parts, ", "), o.MinLength, o.MaxLength, 100*o.NoisyFraction, o.MinSNR, o.MaxSNR)
 }

@@ -65,8 +65,8 @@ func TestReferencePlanIsDeterministicAndInRange(t *testing.T) {
 			t.Errorf("class %s has %d series of %d", c, count[c], len(a))
 		}
 	}
-	if f := float64(noisy) / float64(len(a)); f < 0.35 || f > 0.65 {
-		t.Errorf("noisy fraction %.2f, want about 0.5", f)
+	if f := float64(noisy) / float64(len(a)); f < 0.45 || f > 0.75 {
+		t.Errorf("noisy fraction %.2f, want about 0.6", f)
 	}
 }
 
@@ -118,7 +118,7 @@ func TestReferencePlanDrawsAreGenerable(t *testing.T) {
 	for _, s := range plan {
 		drawn[s.System]++
 		x, err := s.Generate()
-		if errors.Is(err, generators.ErrDiverged) {
+		if errors.Is(err, generators.ErrDiverged) || errors.Is(err, generators.ErrConstant) {
 			escaped[s.System]++
 			continue
 		}

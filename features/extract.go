@@ -121,6 +121,17 @@ func (s *sink) miss(reason string, names ...string) {
 	}
 }
 
+// measure runs fill when any of names is wanted; an error from fill marks
+// them all missing with the error as the reason.
+func (s *sink) measure(fill func() error, names ...string) {
+	if !s.wants(names...) {
+		return
+	}
+	if err := fill(); err != nil {
+		s.missErr(err, names...)
+	}
+}
+
 // missErr marks features missing because an estimator failed.
 func (s *sink) missErr(err error, names ...string) {
 	s.miss(err.Error(), names...)

@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"tracesift/features/nonlinear"
+	"tracesift/features/ordinal"
 )
 
 var nonlinearFamily = family{
@@ -18,6 +19,9 @@ var nonlinearFamily = family{
 		{"zero_one_k", FamilyNonlinear, "0–1 test for chaos K (median over random c; ≈1 chaotic or noisy, ≈0 regular), series decimated by the embedding delay", "Gottwald & Melbourne, Proc. R. Soc. A 460 (2004) 603; SIAM J. Appl. Dyn. Syst. 8 (2009) 129"},
 		{"pred_rho1", FamilyNonlinear, "nearest-neighbour (simplex) forecast correlation one sample ahead", "Sugihara & May, Nature 344 (1990) 734"},
 		{"pred_decay", FamilyNonlinear, "fall of the forecast correlation from 1 to 10 samples ahead (large for chaos, flat for noise)", "Sugihara & May (1990)"},
+		{"pred_rho_tau", FamilyNonlinear, "forecast correlation one embedding delay τ ahead (at most 50 samples): skill on the dynamics' own time scale, robust to fine sampling and measurement noise", "Sugihara & May (1990); Fraser & Swinney (1986)"},
+		{"perm_entropy_tau", FamilyNonlinear, "normalised permutation entropy, order 4, at the embedding delay τ instead of one sample: ordinal structure on the dynamics' time scale, robust to fine sampling and measurement noise", "Bandt & Pompe (2002); Zunino et al., Phys. Lett. A 376 (2012) 2615 (memory)"},
+		{"stat_complexity_tau", FamilyNonlinear, "Jensen–Shannon statistical complexity, order 4, at the embedding delay τ", "Rosso et al., Phys. Rev. Lett. 99 (2007) 154102; Zunino et al. (2012) (memory)"},
 		{"asym_abs", FamilyNonlinear, "|time-reversal asymmetry| of the increments ⟨Δx³⟩/⟨Δx²⟩^{3/2} (0 for linear Gaussian noise)", "Theiler et al., Physica D 58 (1992) 77"},
 		{"sample_entropy", FamilyNonlinear, "sample entropy, m = 2, r = 0.2·sd (2.185 for Gaussian white noise)", "Richman & Moorman, Am. J. Physiol. 278 (2000) H2039"},
 		{"embed_dim", FamilyNonlinear, "embedding dimension from the saturation of Cao's E1", "Cao, Physica D 110 (1997) 43"},
@@ -44,71 +48,106 @@ var (
 )
 
 func computeNonlinear(z []float64, o Options, s *sink) {
-	all := []string{"lyap_max", "lyap_delay", "lyap_credible", "lyap_jump", "corr_dim", "zero_one_k", "pred_rho1", "pred_decay", "embed_dim", "cao_e2_dev"}
-	if !s.wants(all...) {
-		// Only the embedding-free measures below were asked for.
-	} else if emb, err := nonlinear.Embed(z, featEmbed); err != nil {
-		s.missErr(fmt.Errorf("embedding: %w", err), all...)
+	embedded := []string{"lyap_max", "lyap_delay", "lyap_credible", "lyap_jump", "corr_dim", "zero_one_k", "pred_rho1", "pred_decay", "pred_rho_tau", "perm_entropy_tau", "stat_complexity_tau", "embed_dim", "cao_e2_dev"}
+	s.measure(func() error {
+		emb, err := nonlinear.Embed(z, featEmbed)
+		if err != nil {
+			return fmt.Errorf("embedding: %w", err)
+		}
+		measureEmbedded(z, emb, o, s)
+		return nil
+	}, embedded...)
+	s.measure(func() error {
+		r, err := nonlinear.Asymmetry(z, nonlinear.AsymmetryOptions{})
+		if err != nil {
+			return err
+		}
+		s.set("asym_abs", r.Abs)
+		return nil
+	}, "asym_abs")
+	s.measure(func() error {
+		r, err := nonlinear.SampleEntropy(z, nonlinear.SampEnOptions{})
+		switch {
+		case err != nil:
+			return err
+		case !r.Defined:
+			s.miss("no template matches of length m+1 (sample entropy undefined)", "sample_entropy")
+		default:
+			s.set("sample_entropy", r.Value)
+		}
+		return nil
+	}, "sample_entropy")
+}
+
+// measureEmbedded computes the measures that share one delay embedding.
+func measureEmbedded(z []float64, emb *nonlinear.Embedding, o Options, s *sink) {
+	fixed := emb.Fixed()
+	s.set("embed_dim", float64(emb.Dim))
+	if emb.Cao != nil {
+		s.set("cao_e2_dev", emb.Cao.E2Deviation)
 	} else {
-		fixed := emb.Fixed()
-		s.set("embed_dim", float64(emb.Dim))
-		if emb.Cao != nil {
-			s.set("cao_e2_dev", emb.Cao.E2Deviation)
-		} else {
-			s.miss("dimension not chosen by Cao's method", "cao_e2_dev")
+		s.miss("dimension not chosen by Cao's method", "cao_e2_dev")
+	}
+	s.measure(func() error {
+		r, err := nonlinear.Lyapunov(z, nonlinear.LyapunovOptions{Embed: fixed, MaxRef: featLyapRefs})
+		if err != nil {
+			return err
 		}
-		if !s.wants("lyap_max", "lyap_delay", "lyap_credible", "lyap_jump") {
-		} else if r, err := nonlinear.Lyapunov(z, nonlinear.LyapunovOptions{Embed: fixed, MaxRef: featLyapRefs}); err != nil {
-			s.missErr(err, "lyap_max", "lyap_delay", "lyap_credible", "lyap_jump")
+		if r.Credible {
+			s.set("lyap_max", r.Lambda)
+			s.set("lyap_delay", r.Lambda*float64(emb.Delay))
+			s.set("lyap_credible", 1)
 		} else {
-			if r.Credible {
-				s.set("lyap_max", r.Lambda)
-				s.set("lyap_delay", r.Lambda*float64(emb.Delay))
-				s.set("lyap_credible", 1)
-			} else {
-				s.miss("no credible exponential divergence: "+r.Reason, "lyap_max", "lyap_delay")
-				s.set("lyap_credible", 0)
-			}
-			if r.Rise > 0 {
-				s.set("lyap_jump", math.Min(1, math.Max(0, r.Jump/r.Rise)))
-			} else {
-				s.set("lyap_jump", 1)
-			}
+			s.miss("no credible exponential divergence: "+r.Reason, "lyap_max", "lyap_delay")
+			s.set("lyap_credible", 0)
 		}
-		if !s.wants("corr_dim") {
-		} else if r, err := nonlinear.CorrelationDimension(z, nonlinear.CorrDimOptions{Embed: fixed, MaxPairs: featD2Pairs}); err != nil {
-			s.missErr(err, "corr_dim")
-		} else if math.IsNaN(r.D2) {
+		if r.Rise > 0 {
+			s.set("lyap_jump", math.Min(1, math.Max(0, r.Jump/r.Rise)))
+		} else {
+			s.set("lyap_jump", 1)
+		}
+		return nil
+	}, "lyap_max", "lyap_delay", "lyap_credible", "lyap_jump")
+	s.measure(func() error {
+		r, err := nonlinear.CorrelationDimension(z, nonlinear.CorrDimOptions{Embed: fixed, MaxPairs: featD2Pairs})
+		switch {
+		case err != nil:
+			return err
+		case math.IsNaN(r.D2):
 			s.miss("no scaling region: "+r.Reason, "corr_dim")
-		} else {
+		default:
 			s.set("corr_dim", r.D2)
 		}
-		if !s.wants("zero_one_k") {
-		} else if r, err := nonlinear.ZeroOne(z, nonlinear.ZeroOneOptions{Seed: o.Seed, Decimate: emb.Delay, NumC: featZeroOneC, MaxLen: featZeroOneN}); err != nil {
-			s.missErr(err, "zero_one_k")
-		} else {
-			s.set("zero_one_k", r.K)
+		return nil
+	}, "corr_dim")
+	s.measure(func() error {
+		r, err := nonlinear.ZeroOne(z, nonlinear.ZeroOneOptions{Seed: o.Seed, Decimate: emb.Delay, NumC: featZeroOneC, MaxLen: featZeroOneN})
+		if err != nil {
+			return err
 		}
-		if !s.wants("pred_rho1", "pred_decay") {
-		} else if r, err := nonlinear.Prediction(z, nonlinear.PredictionOptions{Embed: fixed}); err != nil {
-			s.missErr(err, "pred_rho1", "pred_decay")
-		} else {
-			s.set("pred_rho1", r.Rho1)
-			s.set("pred_decay", r.Decay)
+		s.set("zero_one_k", r.K)
+		return nil
+	}, "zero_one_k")
+	// Forecasts reach at least 10 samples (pred_decay) and one delay τ
+	// (pred_rho_tau), capped at 50 samples.
+	horizon := max(10, min(emb.Delay, 50))
+	s.measure(func() error {
+		r, err := nonlinear.Prediction(z, nonlinear.PredictionOptions{Embed: fixed, MaxHorizon: horizon})
+		if err != nil {
+			return err
 		}
-	}
-	if !s.wants("asym_abs") {
-	} else if r, err := nonlinear.Asymmetry(z, nonlinear.AsymmetryOptions{}); err != nil {
-		s.missErr(err, "asym_abs")
-	} else {
-		s.set("asym_abs", r.Abs)
-	}
-	if !s.wants("sample_entropy") {
-	} else if r, err := nonlinear.SampleEntropy(z, nonlinear.SampEnOptions{}); err != nil {
-		s.missErr(err, "sample_entropy")
-	} else if !r.Defined {
-		s.miss("no template matches of length m+1 (sample entropy undefined)", "sample_entropy")
-	} else {
-		s.set("sample_entropy", r.Value)
-	}
+		s.set("pred_rho1", r.Rho[0])
+		s.set("pred_decay", r.Rho[0]-r.Rho[9])
+		s.set("pred_rho_tau", r.Rho[min(emb.Delay, 50)-1])
+		return nil
+	}, "pred_rho1", "pred_decay", "pred_rho_tau")
+	s.measure(func() error {
+		r, err := ordinal.Complexity(z, ordinal.Options{Order: 4, Delay: emb.Delay})
+		if err != nil {
+			return err
+		}
+		s.set("perm_entropy_tau", r.Entropy)
+		s.set("stat_complexity_tau", r.Complexity)
+		return nil
+	}, "perm_entropy_tau", "stat_complexity_tau")
 }

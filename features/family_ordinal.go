@@ -20,17 +20,20 @@ var ordinalFamily = family{
 }
 
 func computeOrdinal(z []float64, _ Options, s *sink) {
-	if !s.wants("perm_entropy", "stat_complexity") {
-	} else if r, err := ordinal.Complexity(z, ordinal.Options{Order: 4}); err != nil {
-		s.missErr(err, "perm_entropy", "stat_complexity")
-	} else {
+	s.measure(func() error {
+		r, err := ordinal.Complexity(z, ordinal.Options{Order: 4})
+		if err != nil {
+			return err
+		}
 		s.set("perm_entropy", r.Entropy)
 		s.set("stat_complexity", r.Complexity)
-	}
-	if !s.wants("perm_entropy_d6", "stat_complexity_d6", "complexity_rel") {
-	} else if r, err := ordinal.Complexity(z, ordinal.Options{Order: 6}); err != nil {
-		s.missErr(err, "perm_entropy_d6", "stat_complexity_d6", "complexity_rel")
-	} else {
+		return nil
+	}, "perm_entropy", "stat_complexity")
+	s.measure(func() error {
+		r, err := ordinal.Complexity(z, ordinal.Options{Order: 6})
+		if err != nil {
+			return err
+		}
 		s.set("perm_entropy_d6", r.Entropy)
 		s.set("stat_complexity_d6", r.Complexity)
 		if span := r.MaxComplexity - r.MinComplexity; span > 1e-12 {
@@ -38,11 +41,14 @@ func computeOrdinal(z []float64, _ Options, s *sink) {
 		} else {
 			s.miss("entropy at an end of the plane: complexity bounds coincide", "complexity_rel")
 		}
-	}
-	if !s.wants("perm_missing_excess") {
-	} else if r, err := ordinal.Missing(z, ordinal.Options{Order: 5}); err != nil {
-		s.missErr(err, "perm_missing_excess")
-	} else {
+		return nil
+	}, "perm_entropy_d6", "stat_complexity_d6", "complexity_rel")
+	s.measure(func() error {
+		r, err := ordinal.Missing(z, ordinal.Options{Order: 5})
+		if err != nil {
+			return err
+		}
 		s.set("perm_missing_excess", math.Max(0, float64(r.Missing)-r.ExpectedIID)/float64(r.Patterns))
-	}
+		return nil
+	}, "perm_missing_excess")
 }

@@ -1,6 +1,7 @@
 package features
 
 import (
+	"errors"
 	"math"
 
 	"tracesift/features/scaling"
@@ -23,48 +24,65 @@ var scalingFamily = family{
 }
 
 func computeScaling(z []float64, _ Options, s *sink) {
-	if !s.wants("dfa_alpha", "dfa_r2") {
-	} else if r, err := scaling.DFA(z, scaling.DFAOptions{Order: 1}); err != nil {
-		s.missErr(err, "dfa_alpha", "dfa_r2")
-	} else {
+	s.measure(func() error {
+		r, err := scaling.DFA(z, scaling.DFAOptions{Order: 1})
+		if err != nil {
+			return err
+		}
 		s.set("dfa_alpha", r.Alpha)
 		s.set("dfa_r2", r.R2)
-	}
-	if !s.wants("dfa2_alpha") {
-	} else if r, err := scaling.DFA(z, scaling.DFAOptions{Order: 2}); err != nil {
-		s.missErr(err, "dfa2_alpha")
-	} else {
+		return nil
+	}, "dfa_alpha", "dfa_r2")
+	s.measure(func() error {
+		r, err := scaling.DFA(z, scaling.DFAOptions{Order: 2})
+		if err != nil {
+			return err
+		}
 		s.set("dfa2_alpha", r.Alpha)
-	}
-	if !s.wants("hurst_rs") {
-	} else if r, err := scaling.RescaledRange(z, scaling.RSOptions{}); err != nil {
-		s.missErr(err, "hurst_rs")
-	} else {
+		return nil
+	}, "dfa2_alpha")
+	s.measure(func() error {
+		r, err := scaling.RescaledRange(z, scaling.RSOptions{})
+		if err != nil {
+			return err
+		}
 		s.set("hurst_rs", r.H)
-	}
-	if !s.wants("spectral_beta", "spectral_r2") {
-	} else if r, err := scaling.SpectralSlope(z, scaling.SlopeOptions{}); err != nil {
-		s.missErr(err, "spectral_beta", "spectral_r2")
-	} else {
+		return nil
+	}, "hurst_rs")
+	s.measure(func() error {
+		r, err := scaling.SpectralSlope(z, scaling.SlopeOptions{})
+		if err != nil {
+			return err
+		}
 		s.set("spectral_beta", r.Beta)
 		s.set("spectral_r2", r.R2)
-	}
-	if !s.wants("spectral_flatness", "spectral_peak") {
-	} else if sp, err := scaling.Welch(z, scaling.WelchOptions{}); err != nil {
-		s.missErr(err, "spectral_flatness", "spectral_peak")
-	} else {
+		return nil
+	}, "spectral_beta", "spectral_r2")
+	s.measure(func() error {
+		sp, err := scaling.Welch(z, scaling.WelchOptions{})
+		if err != nil {
+			return err
+		}
 		flat, peak := spectralShape(sp.Power[1:])
 		s.set("spectral_flatness", flat)
 		s.set("spectral_peak", peak)
-	}
-	if !s.wants("acf_decay") {
-	} else if r, err := scaling.DecayTime(z, scaling.DecayOptions{}); err != nil {
-		// The ACF never fell below 1/e over the lag range: the range is a
-		// lower bound of the decay time, which is what the feature needs.
-		s.set("acf_decay", math.Log10(float64(len(z)/4)))
-	} else {
-		s.set("acf_decay", math.Log10(math.Max(r.Time, 1e-3)))
-	}
+		return nil
+	}, "spectral_flatness", "spectral_peak")
+	s.measure(func() error {
+		r, err := scaling.DecayTime(z, scaling.DecayOptions{})
+		switch {
+		case errors.Is(err, scaling.ErrNoDecay):
+			// The ACF never fell below 1/e over the lag range (n/4): that
+			// range is a lower bound of the decay time, which is what the
+			// feature needs.
+			s.set("acf_decay", math.Log10(float64(len(z)/4)))
+		case err != nil:
+			return err
+		default:
+			s.set("acf_decay", math.Log10(math.Max(r.Time, 1e-3)))
+		}
+		return nil
+	}, "acf_decay")
 }
 
 // spectralShape returns the spectral flatness (geometric mean over

@@ -103,7 +103,7 @@ func AddNoise(x []float64, snrDB float64, rng *rand.Rand) ([]float64, error) {
 	}
 	sd := math.Sqrt(ss / float64(len(x)))
 	if !(sd > 0) {
-		return nil, fmt.Errorf("generators: cannot set an SNR on a constant series")
+		return nil, fmt.Errorf("generators: cannot set an SNR: %w", ErrConstant)
 	}
 	noiseSD := sd * math.Pow(10, -snrDB/20)
 	for i := range out {

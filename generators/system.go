@@ -123,6 +123,11 @@ var ErrParamRange = errors.New("parameter out of range")
 // integration stops being finite for the requested parameters.
 var ErrDiverged = errors.New("orbit diverged")
 
+// ErrConstant is returned when a series that must vary is constant, e.g. an
+// orbit that settled on a fixed point when observational noise is to be set
+// relative to its variance.
+var ErrConstant = errors.New("constant series")
+
 // ErrNoEquations is returned by System.Lyapunov for systems that have no
 // deterministic equations (noises, synthetic waveforms).
 var ErrNoEquations = errors.New("system has no deterministic equations")
