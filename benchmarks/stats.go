@@ -4,35 +4,16 @@ import (
 	"math"
 	"slices"
 	"strconv"
+
+	"tracesift/internal/jsonsafe"
 )
 
 // Float is a float64 that writes NaN and ±Inf as JSON null, so results.json
 // stays valid when a value is missing (an estimator that found no scaling
-// region, an SNR of +Inf meaning "no noise").
-type Float float64
-
-// MarshalJSON writes the shortest exact decimal form, or null.
-func (f Float) MarshalJSON() ([]byte, error) {
-	v := float64(f)
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return []byte("null"), nil
-	}
-	return strconv.AppendFloat(nil, v, 'g', -1, 64), nil
-}
-
-// UnmarshalJSON reads a number, or null as NaN.
-func (f *Float) UnmarshalJSON(b []byte) error {
-	if string(b) == "null" {
-		*f = Float(math.NaN())
-		return nil
-	}
-	v, err := strconv.ParseFloat(string(b), 64)
-	if err != nil {
-		return err
-	}
-	*f = Float(v)
-	return nil
-}
+// region, an SNR of +Inf meaning "no noise"); finite values are written in
+// the shortest exact decimal form, and null reads back as NaN. It is
+// jsonsafe.Float, shared with the other packages that write JSON.
+type Float = jsonsafe.Float
 
 // Spread summarises a sample: median, quartiles (linear interpolation
 // between order statistics, the default of most statistics packages) and

@@ -49,7 +49,7 @@ func (m Cubic) Generate(n int, rng *rand.Rand) ([]float64, error) {
 }
 
 func init() {
-	register(&System{
+	registerMap(&System{
 		Name:   "cubic",
 		Title:  "cubic map x' = r x - x³",
 		Doc:    "Chaotic at r = 3 (conjugate to angle tripling, λ = ln 3); symmetric period doubling below. Below r = 2 the orbit settles on a fixed point or 2-cycle, so r starts at 2.3. Label: chaotic when λ1 from the tangent map (orbit from 0.3, 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
@@ -57,14 +57,6 @@ func init() {
 		Invariants: []Invariant{
 			{Name: "lyap_max", Value: math.Log(3), Unit: "per iteration", Source: "analytic: conjugacy to angle tripling via x = 2 cos θ, r = 3"},
 		},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(Cubic{R: p["r"]}, 0.3)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return Cubic{R: p["r"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) Cubic { return Cubic{R: p["r"]} }, 0.3)
 }

@@ -31,19 +31,11 @@ func (m DelayedLogistic) Generate(n int, rng *rand.Rand) ([]float64, error) {
 }
 
 func init() {
-	register(&System{
+	registerMap(&System{
 		Name:         "delayed-logistic",
 		Title:        "delayed logistic map x' = A x (1 - y), y' = x (observed x)",
 		Doc:          "Quasi-periodic (invariant circle) for 2 < A ≲ 2.27 and chaotic near A = 2.27. Orbits are started near the fixed point; escapes are reported as ErrDiverged. Label: chaotic when λ1 from the tangent map (orbit from (0.56, 0.56), 10^5 iterations after 10^4) exceeds 0.01 per iteration, otherwise regular.",
 		Params:       []Param{{Name: "a", Default: 2.27, Min: 2.01, Max: 2.27, Doc: "growth parameter"}},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(DelayedLogistic{A: p["a"]}, 0.56, 0.56)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return DelayedLogistic{A: p["a"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) DelayedLogistic { return DelayedLogistic{A: p["a"]} }, 0.56, 0.56)
 }

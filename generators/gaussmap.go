@@ -27,7 +27,7 @@ func (m GaussMap) Generate(n int, rng *rand.Rand) ([]float64, error) {
 }
 
 func init() {
-	register(&System{
+	registerMap(&System{
 		Name:  "gauss-map",
 		Title: "Gauss (mouse) map x' = exp(-alpha x²) + beta",
 		Doc:   "Chaotic bands and periodic windows as beta varies. Label: chaotic when λ1 from the tangent map (orbit from 0.1, 10^5 iterations after 10^4) exceeds 0.01 per iteration, otherwise regular.",
@@ -35,14 +35,6 @@ func init() {
 			{Name: "alpha", Default: 6.2, Min: 4, Max: 8, Doc: "width parameter"},
 			{Name: "beta", Default: -0.55, Min: -0.8, Max: -0.3, Doc: "offset"},
 		},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(GaussMap{Alpha: p["alpha"], Beta: p["beta"]}, 0.1)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return GaussMap{Alpha: p["alpha"], Beta: p["beta"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) GaussMap { return GaussMap{Alpha: p["alpha"], Beta: p["beta"]} }, 0.1)
 }

@@ -46,7 +46,7 @@ func (m Ikeda) Generate(n int, rng *rand.Rand) ([]float64, error) {
 }
 
 func init() {
-	register(&System{
+	registerMap(&System{
 		Name:  "ikeda",
 		Title: "Ikeda map z' = 1 + u z exp(i(0.4 - 6/(1+|z|²))) (observed Re z)",
 		Doc:   "Chaotic at u = 0.9; above it orbits from the random start can settle on a stable fixed point, so u stops at 0.9. Label: chaotic when λ1 from the tangent map (orbit from (0, 0), 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
@@ -56,14 +56,6 @@ func init() {
 		Invariants: []Invariant{
 			{Name: "lyap_sum", Value: 2 * math.Log(0.9), Unit: "per iteration", Source: "analytic: ln|det J| = 2 ln u"},
 		},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(Ikeda{U: p["u"]}, 0, 0)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return Ikeda{U: p["u"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) Ikeda { return Ikeda{U: p["u"]} }, 0, 0)
 }

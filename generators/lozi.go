@@ -37,7 +37,7 @@ func (m Lozi) Generate(n int, rng *rand.Rand) ([]float64, error) {
 }
 
 func init() {
-	register(&System{
+	registerMap(&System{
 		Name:  "lozi",
 		Title: "Lozi map x' = 1 - a|x| + y, y' = b x (observed x)",
 		Doc:   "Chaotic at the classical a = 1.7, b = 0.5 (Lozi 1978). Some (a, b) let the orbit escape (ErrDiverged). Label: chaotic when λ1 from the tangent map (orbit from (0, 0), 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
@@ -48,14 +48,6 @@ func init() {
 		Invariants: []Invariant{
 			{Name: "lyap_sum", Value: math.Log(0.5), Unit: "per iteration", Source: "analytic: ln|det J| = ln b"},
 		},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(Lozi{A: p["a"], B: p["b"]}, 0, 0)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return Lozi{A: p["a"], B: p["b"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) Lozi { return Lozi{A: p["a"], B: p["b"]} }, 0, 0)
 }

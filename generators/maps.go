@@ -132,6 +132,26 @@ func mapLyap(m mapping, x0 ...float64) (Spectrum, error) {
 	return mapSpectrum(m, x0, mapLyapTransient, mapLyapIters, m.dim())
 }
 
+// registerMap registers s as an iterated map with the label rule of the
+// maps: samples on the iteration axis, the generator mk(p) with sample
+// interval 1, and the label chaotic when λ1 of the tangent map of mk(p) from
+// the fixed start x0 (mapLyap) exceeds mapChaosThreshold, otherwise regular.
+// s supplies the rest (name, docs, parameters, invariants, default class).
+func registerMap[M interface {
+	Generator
+	mapping
+}](s *System, mk func(p map[string]float64) M, x0 ...float64) {
+	s.TimeAxis = AxisIteration
+	s.lyap = func(p map[string]float64) (Spectrum, error) {
+		return mapLyap(mk(p), x0...)
+	}
+	s.threshold = mapChaosThreshold
+	s.build = func(p map[string]float64) (Generator, float64, error) {
+		return mk(p), 1, nil
+	}
+	register(s)
+}
+
 // logisticRule is the label text shared by the logistic entries.
 const logisticRule = " Label: chaotic when the map's Lyapunov exponent at r, the average of ln|r(1−2x)| over 10^5 iterations from x0 = 0.314159 after 10^4 of transient, exceeds 0.01 per iteration; otherwise regular. Below r = 3 the orbit settles on a fixed point (a constant series), so r starts at 3."
 
@@ -168,7 +188,7 @@ func init() {
 		threshold:    mapChaosThreshold,
 		build:        build,
 	})
-	register(&System{
+	registerMap(&System{
 		Name:  "henon",
 		Title: "Hénon map x' = 1 - a x² + y, y' = b x (observed x)",
 		Doc:   "Chaotic at the classical a = 1.4, b = 0.3. Below a ≈ 0.37 (b = 0.3) the orbit settles on a fixed point, so a starts at 0.4; some (a, b) let the orbit escape, which Generate and Class report as ErrDiverged. Label: chaotic when λ1 from the tangent map (orbit from (0, 0), 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
@@ -181,14 +201,6 @@ func init() {
 			{Name: "lyap_sum", Value: math.Log(0.3), Unit: "per iteration", Source: "analytic: ln|det J| = ln b"},
 			{Name: "corr_dim", Value: 1.21, Unit: "", Source: "Grassberger & Procaccia, Physica D 9 (1983) 189 (memory)"},
 		},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(Henon{A: p["a"], B: p["b"]}, 0, 0)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return Henon{A: p["a"], B: p["b"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) Henon { return Henon{A: p["a"], B: p["b"]} }, 0, 0)
 }

@@ -29,19 +29,11 @@ func (m SineMap) Generate(n int, rng *rand.Rand) ([]float64, error) {
 }
 
 func init() {
-	register(&System{
+	registerMap(&System{
 		Name:         "sine-map",
 		Title:        "sine map x' = r sin(pi x)",
 		Doc:          "Chaotic at r = 1; period-doubling and periodic windows below. Below r ≈ 0.72 the orbit settles on a fixed point, so r starts at 0.75. Label: chaotic when λ1 from the tangent map (orbit from 0.3, 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
 		Params:       []Param{{Name: "r", Default: 1, Min: 0.75, Max: 1, Doc: "amplitude"}},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(SineMap{R: p["r"]}, 0.3)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return SineMap{R: p["r"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) SineMap { return SineMap{R: p["r"]} }, 0.3)
 }

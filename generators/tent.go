@@ -38,7 +38,7 @@ func (m Tent) Generate(n int, rng *rand.Rand) ([]float64, error) {
 }
 
 func init() {
-	register(&System{
+	registerMap(&System{
 		Name:   "tent",
 		Title:  "tent map x' = mu min(x, 1 - x)",
 		Doc:    "Chaotic for every 1 < mu < 2 (λ = ln mu). mu = 2 is excluded because float orbits of the doubling collapse onto 0; the default 1.9999 is the documented stand-in. Label: chaotic when λ1 from the tangent map (orbit from 0.3, 10^5 iterations after 10^4) exceeds 0.01 per iteration, i.e. mu > e^0.01 ≈ 1.01.",
@@ -46,14 +46,6 @@ func init() {
 		Invariants: []Invariant{
 			{Name: "lyap_max", Value: math.Log(1.9999), Unit: "per iteration", Source: "analytic: |slope| = mu everywhere, λ = ln mu"},
 		},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(Tent{Mu: p["mu"]}, 0.3)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return Tent{Mu: p["mu"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) Tent { return Tent{Mu: p["mu"]} }, 0.3)
 }

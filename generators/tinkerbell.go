@@ -32,7 +32,7 @@ func (m Tinkerbell) Generate(n int, rng *rand.Rand) ([]float64, error) {
 }
 
 func init() {
-	register(&System{
+	registerMap(&System{
 		Name:  "tinkerbell",
 		Title: "Tinkerbell map (observed x)",
 		Doc:   "x' = x² - y² + a x + b y, y' = 2 x y + c x + d y; chaotic at a = 0.9, b = -0.6013, c = 2, d = 0.5. The classical set sits next to a crisis (b below -0.6013 or c above 2 lets orbits escape), so parameters move only a little, towards the interior; escapes are reported as ErrDiverged. Label: chaotic when λ1 from the tangent map (orbit from (-0.72, -0.64), 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
@@ -42,14 +42,6 @@ func init() {
 			{Name: "c", Default: 2, Min: 1.95, Max: 2, Doc: "coefficient c"},
 			{Name: "d", Default: 0.5, Min: 0.4, Max: 0.5, Doc: "coefficient d"},
 		},
-		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mapLyap(Tinkerbell{A: p["a"], B: p["b"], C: p["c"], D: p["d"]}, -0.72, -0.64)
-		},
-		threshold: mapChaosThreshold,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return Tinkerbell{A: p["a"], B: p["b"], C: p["c"], D: p["d"]}, 1, nil
-		},
-	})
+	}, func(p map[string]float64) Tinkerbell { return Tinkerbell{A: p["a"], B: p["b"], C: p["c"], D: p["d"]} }, -0.72, -0.64)
 }

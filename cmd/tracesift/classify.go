@@ -10,6 +10,7 @@ import (
 
 	"tracesift/classifier"
 	"tracesift/features"
+	"tracesift/internal/jsonsafe"
 	"tracesift/trace"
 )
 
@@ -140,34 +141,34 @@ func intervalSeconds(tr trace.Trace) float64 {
 }
 
 type classifyLine struct {
-	File          string               `json:"file"`
-	Class         string               `json:"class"`
-	Top           string               `json:"top"`
-	Probabilities map[string]jsonFloat `json:"probabilities"`
-	Reasons       []string             `json:"reasons"`
-	Drivers       []driverJSON         `json:"drivers"`
-	Warnings      []string             `json:"warnings"`
-	Samples       int                  `json:"samples"`
-	Windows       int                  `json:"windows"`
-	WindowLength  int                  `json:"window_length"`
-	Caution       string               `json:"caution"`
+	File          string                    `json:"file"`
+	Class         string                    `json:"class"`
+	Top           string                    `json:"top"`
+	Probabilities map[string]jsonsafe.Float `json:"probabilities"`
+	Reasons       []string                  `json:"reasons"`
+	Drivers       []driverJSON              `json:"drivers"`
+	Warnings      []string                  `json:"warnings"`
+	Samples       int                       `json:"samples"`
+	Windows       int                       `json:"windows"`
+	WindowLength  int                       `json:"window_length"`
+	Caution       string                    `json:"caution"`
 }
 
 type driverJSON struct {
-	Feature      string    `json:"feature"`
-	Value        jsonFloat `json:"value"`
-	Contribution jsonFloat `json:"contribution"`
+	Feature      string         `json:"feature"`
+	Value        jsonsafe.Float `json:"value"`
+	Contribution jsonsafe.Float `json:"contribution"`
 }
 
 func classifyJSON(name string, r classifyResult) classifyLine {
-	l := classifyLine{File: name, Class: r.v.Class, Top: r.v.Top, Probabilities: map[string]jsonFloat{},
+	l := classifyLine{File: name, Class: r.v.Class, Top: r.v.Top, Probabilities: map[string]jsonsafe.Float{},
 		Reasons: nonNil(r.v.Reasons), Warnings: nonNil(r.v.Warnings), Samples: len(r.tr.Values),
 		Windows: r.v.Windows, WindowLength: r.v.WindowLength, Caution: caution, Drivers: []driverJSON{}}
 	for i, c := range r.v.Classes {
-		l.Probabilities[c] = jsonFloat(r.v.Probabilities[i])
+		l.Probabilities[c] = jsonsafe.Float(r.v.Probabilities[i])
 	}
 	for _, d := range r.v.Drivers {
-		l.Drivers = append(l.Drivers, driverJSON{d.Feature, jsonFloat(d.Value), jsonFloat(d.Contribution)})
+		l.Drivers = append(l.Drivers, driverJSON{d.Feature, jsonsafe.Float(d.Value), jsonsafe.Float(d.Contribution)})
 	}
 	return l
 }

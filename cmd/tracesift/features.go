@@ -9,6 +9,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"tracesift/features"
+	"tracesift/internal/jsonsafe"
 	"tracesift/trace"
 )
 
@@ -122,23 +123,23 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 }
 
 type featuresLine struct {
-	File     string               `json:"file"`
-	Samples  int                  `json:"samples"`
-	Interval jsonFloat            `json:"interval,omitempty"`
-	Column   string               `json:"column,omitempty"`
-	Unit     string               `json:"unit,omitempty"`
-	Features map[string]jsonFloat `json:"features"`
-	Missing  map[string]string    `json:"missing,omitempty"`
-	Warnings []string             `json:"warnings,omitempty"`
+	File     string                    `json:"file"`
+	Samples  int                       `json:"samples"`
+	Interval jsonsafe.Float            `json:"interval,omitempty"`
+	Column   string                    `json:"column,omitempty"`
+	Unit     string                    `json:"unit,omitempty"`
+	Features map[string]jsonsafe.Float `json:"features"`
+	Missing  map[string]string         `json:"missing,omitempty"`
+	Warnings []string                  `json:"warnings,omitempty"`
 }
 
 func featuresJSON(name string, r featureResult, names []string) featuresLine {
-	l := featuresLine{File: name, Samples: len(r.tr.Values), Interval: jsonFloat(r.tr.Interval),
-		Column: r.tr.Column, Unit: r.tr.Unit, Features: map[string]jsonFloat{}, Warnings: r.tr.Warnings}
+	l := featuresLine{File: name, Samples: len(r.tr.Values), Interval: jsonsafe.Float(r.tr.Interval),
+		Column: r.tr.Column, Unit: r.tr.Unit, Features: map[string]jsonsafe.Float{}, Warnings: r.tr.Warnings}
 	missing := r.vec.Missing()
 	for _, n := range names {
 		v, _ := r.vec.Get(n)
-		l.Features[n] = jsonFloat(v)
+		l.Features[n] = jsonsafe.Float(v)
 		if why, ok := missing[n]; ok {
 			if l.Missing == nil {
 				l.Missing = map[string]string{}

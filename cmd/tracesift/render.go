@@ -67,18 +67,6 @@ func human(v float64) string {
 // full prints a number at full precision for machines.
 func full(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 
-// jsonFloat is a float64 that encodes NaN and infinities as null, so JSON
-// output stays valid when a value is missing.
-type jsonFloat float64
-
-func (f jsonFloat) MarshalJSON() ([]byte, error) {
-	v := float64(f)
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return []byte("null"), nil
-	}
-	return []byte(strconv.FormatFloat(v, 'g', -1, 64)), nil
-}
-
 // writeJSONLine writes v as one line of JSON Lines.
 func writeJSONLine(w io.Writer, v any) error {
 	b, err := json.Marshal(v)

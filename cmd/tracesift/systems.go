@@ -8,6 +8,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"tracesift/generators"
+	"tracesift/internal/jsonsafe"
 )
 
 func init() { addCommand(newSystemsCmd) }
@@ -53,18 +54,18 @@ type systemJSON struct {
 }
 
 type paramJSON struct {
-	Name    string    `json:"name"`
-	Default jsonFloat `json:"default"`
-	Min     jsonFloat `json:"min"`
-	Max     jsonFloat `json:"max"`
-	Doc     string    `json:"doc"`
+	Name    string         `json:"name"`
+	Default jsonsafe.Float `json:"default"`
+	Min     jsonsafe.Float `json:"min"`
+	Max     jsonsafe.Float `json:"max"`
+	Doc     string         `json:"doc"`
 }
 
 type invariantJSON struct {
-	Name   string    `json:"name"`
-	Value  jsonFloat `json:"value"`
-	Unit   string    `json:"unit"`
-	Source string    `json:"source"`
+	Name   string         `json:"name"`
+	Value  jsonsafe.Float `json:"value"`
+	Unit   string         `json:"unit"`
+	Source string         `json:"source"`
 }
 
 func writeSystemsJSON(e *env, all []*generators.System) error {
@@ -76,10 +77,10 @@ func writeSystemsJSON(e *env, all []*generators.System) error {
 		j := systemJSON{Name: s.Name, Title: s.Title, Class: string(cl), TimeAxis: s.TimeAxis, Doc: s.Doc,
 			Params: []paramJSON{}, Invariants: []invariantJSON{}}
 		for _, p := range s.Params {
-			j.Params = append(j.Params, paramJSON{p.Name, jsonFloat(p.Default), jsonFloat(p.Min), jsonFloat(p.Max), p.Doc})
+			j.Params = append(j.Params, paramJSON{p.Name, jsonsafe.Float(p.Default), jsonsafe.Float(p.Min), jsonsafe.Float(p.Max), p.Doc})
 		}
 		for _, v := range s.Invariants {
-			j.Invariants = append(j.Invariants, invariantJSON{v.Name, jsonFloat(v.Value), v.Unit, v.Source})
+			j.Invariants = append(j.Invariants, invariantJSON{v.Name, jsonsafe.Float(v.Value), v.Unit, v.Source})
 		}
 		if err := writeJSONLine(e.stdout, j); err != nil {
 			return err

@@ -61,10 +61,7 @@ func AverageMutualInformation(x []float64, opts AMIOptions) (*AMIResult, error) 
 		return nil, err
 	}
 	n := len(z)
-	maxLag := opts.MaxLag
-	if maxLag <= 0 {
-		maxLag = max(1, min(200, n/20))
-	}
+	maxLag := orDefault(opts.MaxLag, defaultMaxLag(n))
 	if maxLag >= n/2 {
 		return nil, fmt.Errorf("%s: max lag %d needs at least %d samples, have %d: %w", who, maxLag, 2*maxLag+2, n, ErrTooShort)
 	}
@@ -78,10 +75,7 @@ func AverageMutualInformation(x []float64, opts AMIOptions) (*AMIResult, error) 
 	if bins < 2 || bins > 255 {
 		return nil, fmt.Errorf("%s: %d bins, want 2..255", who, bins)
 	}
-	maxPairs := opts.MaxPairs
-	if maxPairs <= 0 {
-		maxPairs = 50000
-	}
+	maxPairs := orDefault(opts.MaxPairs, 50000)
 	b := binEquiprobable(z, bins)
 	res := &AMIResult{MI: make([]float64, maxLag+1), Bins: bins}
 	joint := make([]float64, bins*bins)

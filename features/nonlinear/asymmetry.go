@@ -37,10 +37,7 @@ type AsymmetryResult struct {
 // samples.
 func Asymmetry(x []float64, opts AsymmetryOptions) (*AsymmetryResult, error) {
 	const who = "nonlinear: asymmetry"
-	lag := opts.Lag
-	if lag <= 0 {
-		lag = 1
-	}
+	lag := orDefault(opts.Lag, 1)
 	z, err := standardize(x, lag+10, who)
 	if err != nil {
 		return nil, err

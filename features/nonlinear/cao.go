@@ -5,6 +5,9 @@ import (
 	"math"
 )
 
+// caoWho names the method in error messages.
+const caoWho = "nonlinear: cao"
+
 // CaoOptions configures Cao. The zero value gives the documented defaults.
 type CaoOptions struct {
 	// Delay is the embedding delay in samples. Default: chosen as in Embed
@@ -61,18 +64,9 @@ type CaoResult struct {
 // neighbour is its nearest distinct vector (Cao 1997). The series needs room for MaxDim+1 coordinates plus the Theiler
 // window and at least 50 vectors.
 func Cao(x []float64, opts CaoOptions) (*CaoResult, error) {
-	const who = "nonlinear: cao"
-	z, err := standardize(x, 50, who)
+	z, delay, w, err := dimSearchInput(x, opts.Delay, opts.Theiler, caoWho)
 	if err != nil {
 		return nil, err
-	}
-	delay, acf, _, err := chooseDelay(z, EmbedOptions{Delay: opts.Delay})
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", who, err)
-	}
-	w := opts.Theiler
-	if w <= 0 {
-		w = defaultTheiler(acf, delay)
 	}
 	return caoStd(z, delay, w, opts)
 }
@@ -80,62 +74,33 @@ func Cao(x []float64, opts CaoOptions) (*CaoResult, error) {
 // caoStd runs Cao's method on a standardised series with a known delay and
 // Theiler window.
 func caoStd(z []float64, delay, w int, opts CaoOptions) (*CaoResult, error) {
-	const who = "nonlinear: cao"
-	maxDim := opts.MaxDim
-	if maxDim <= 0 {
-		maxDim = 10
+	// E(d) is needed for d = 1..MaxDim+1, each reading a (d+1)-th
+	// coordinate: vectors of dimension MaxDim+2 must exist.
+	s, err := newDimSearch(z, delay, w, opts.MaxDim, opts.MaxRef, opts.MaxPoints, 2, caoWho)
+	if err != nil {
+		return nil, err
 	}
-	maxRef := opts.MaxRef
-	if maxRef <= 0 {
-		maxRef = 1000
-	}
-	if opts.MaxPoints <= 0 {
-		opts.MaxPoints = 20000
-	}
-	if len(z) > opts.MaxPoints {
-		z = z[:opts.MaxPoints]
-	}
-	thr := opts.Threshold
-	if thr <= 0 {
-		thr = 0.85
-	}
-	n := len(z)
-	// vectors of dimension d+1 with d = maxDim+1 must exist: i + (maxDim+1)·delay < n
-	valid := n - (maxDim+1)*delay
-	if valid < 50 || valid <= 2*w+10 {
-		return nil, fmt.Errorf("%s: %d samples leave %d vectors at dimension %d, delay %d, Theiler window %d: %w",
-			who, n, valid, maxDim+2, delay, w, ErrTooShort)
-	}
-	refs := evenlySpaced(valid, maxRef)
+	maxDim := s.maxDim
+	thr := orDefault(opts.Threshold, 0.85)
 	E := make([]float64, maxDim+2)     // E[d] for d = 1..maxDim+1
 	Estar := make([]float64, maxDim+2) // E*[d]
-	q := make([]float64, maxDim+1)
 	for d := 1; d <= maxDim+1; d++ {
-		m := n - d*delay // vectors of dimension d that have a (d+1)-th coordinate
-		pts := delayVectors(z, d, delay, m)
-		tree := newKDTree(pts, d, m)
 		var sa, ss float64
 		used := 0
-		for _, i := range refs {
-			copy(q[:d], pts[i*d:(i+1)*d])
-			j, dist := tree.nearest(q[:d], i, w, false)
-			if j < 0 {
-				continue
-			}
-			extra := math.Abs(z[i+d*delay] - z[j+d*delay])
+		s.neighbours(d, false, func(dist, extra float64) {
 			sa += math.Max(dist, extra) / dist
 			ss += extra
 			used++
-		}
+		})
 		if used == 0 {
-			return nil, fmt.Errorf("%s: no reference point has a distinct neighbour outside the Theiler window at dimension %d: %w", who, d, ErrTooShort)
+			return nil, fmt.Errorf("%s: no reference point has a distinct neighbour outside the Theiler window at dimension %d: %w", caoWho, d, ErrTooShort)
 		}
 		E[d] = sa / float64(used)
 		Estar[d] = ss / float64(used)
 	}
 	res := &CaoResult{
 		E1: make([]float64, maxDim), E2: make([]float64, maxDim),
-		Dim: maxDim, Delay: delay, Theiler: w, Refs: len(refs), Points: n,
+		Dim: maxDim, Delay: delay, Theiler: w, Refs: len(s.refs), Points: len(s.z),
 	}
 	for d := 1; d <= maxDim; d++ {
 		res.E1[d-1] = E[d+1] / E[d]

@@ -76,25 +76,36 @@ func (e *Embedding) Fixed() EmbedOptions {
 //
 // x needs at least 200 samples for the automatic choice.
 func Embed(x []float64, opts EmbedOptions) (*Embedding, error) {
-	const who = "nonlinear: embed"
+	_, e, err := standardEmbed(x, opts, "nonlinear: embed")
+	return e, err
+}
+
+// standardEmbed is the input stage shared by Embed and the estimators that
+// embed (CorrelationDimension, Lyapunov, Prediction): it standardises x (at
+// least 200 samples) and embeds the standardised series as Embed does. who
+// names the caller in error messages.
+func standardEmbed(x []float64, opts EmbedOptions, who string) ([]float64, *Embedding, error) {
 	z, err := standardize(x, 200, who)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	e, err := embedStd(z, opts)
 	if err != nil {
-		return nil, fmt.Errorf("%s: %w", who, err)
+		return nil, nil, fmt.Errorf("%s: %w", who, err)
 	}
-	return e, nil
+	return z, e, nil
+}
+
+// defaultMaxLag is the default largest lag of the mutual-information curve
+// for n samples: min(200, n/20), at least 1.
+func defaultMaxLag(n int) int {
+	return max(1, min(200, n/20))
 }
 
 // chooseDelay returns the delay (given or automatic), the autocorrelation
 // time and the AMI curve (nil if the delay was given).
 func chooseDelay(z []float64, opts EmbedOptions) (delay, acf int, ami *AMIResult, err error) {
-	maxLag := opts.AMI.MaxLag
-	if maxLag <= 0 {
-		maxLag = max(1, min(200, len(z)/20))
-	}
+	maxLag := orDefault(opts.AMI.MaxLag, defaultMaxLag(len(z)))
 	acf, _ = autocorrTime(z, maxLag)
 	if opts.Delay > 0 {
 		return opts.Delay, acf, nil, nil
@@ -135,15 +146,9 @@ func embedStd(z []float64, opts EmbedOptions) (*Embedding, error) {
 	if e.Dim > 0 {
 		return e, nil
 	}
-	maxDim := opts.MaxDim
-	if maxDim <= 0 {
-		maxDim = 10
-	}
+	maxDim := orDefault(opts.MaxDim, defaultMaxDim)
 	// Shrink the search for short series so that it still fits.
-	nz := min(len(z), opts.MaxPoints)
-	if opts.MaxPoints <= 0 {
-		nz = min(len(z), 20000)
-	}
+	nz := min(len(z), orDefault(opts.MaxPoints, defaultMaxPoints))
 	for maxDim > 2 && nz-(maxDim+1)*delay < max(50, 2*e.Theiler+10) {
 		maxDim--
 	}

@@ -1,9 +1,9 @@
 package nonlinear
 
-import (
-	"fmt"
-	"math"
-)
+import "math"
+
+// fnnWho names the method in error messages.
+const fnnWho = "nonlinear: false nearest neighbours"
 
 // FNNOptions configures FalseNeighbours. The zero value gives the documented
 // defaults.
@@ -43,75 +43,36 @@ type FNNResult struct {
 // standardisation). The dimension is the first d whose fraction is at most
 // Fraction.
 func FalseNeighbours(x []float64, opts FNNOptions) (*FNNResult, error) {
-	const who = "nonlinear: false nearest neighbours"
-	z, err := standardize(x, 50, who)
+	z, delay, w, err := dimSearchInput(x, opts.Delay, opts.Theiler, fnnWho)
 	if err != nil {
 		return nil, err
-	}
-	delay, acf, _, err := chooseDelay(z, EmbedOptions{Delay: opts.Delay})
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", who, err)
-	}
-	w := opts.Theiler
-	if w <= 0 {
-		w = defaultTheiler(acf, delay)
 	}
 	return fnnStd(z, delay, w, opts)
 }
 
+// fnnStd runs the false-nearest-neighbour test on a standardised series with
+// a known delay and Theiler window.
 func fnnStd(z []float64, delay, w int, opts FNNOptions) (*FNNResult, error) {
-	const who = "nonlinear: false nearest neighbours"
-	maxDim := opts.MaxDim
-	if maxDim <= 0 {
-		maxDim = 10
+	// Dimensions 1..MaxDim, each reading a (d+1)-th coordinate: vectors of
+	// dimension MaxDim+1 must exist.
+	s, err := newDimSearch(z, delay, w, opts.MaxDim, opts.MaxRef, opts.MaxPoints, 1, fnnWho)
+	if err != nil {
+		return nil, err
 	}
-	maxRef := opts.MaxRef
-	if maxRef <= 0 {
-		maxRef = 1000
-	}
-	if opts.MaxPoints <= 0 {
-		opts.MaxPoints = 20000
-	}
-	if len(z) > opts.MaxPoints {
-		z = z[:opts.MaxPoints]
-	}
-	rtol, atol, frac := opts.RTol, opts.ATol, opts.Fraction
-	if rtol <= 0 {
-		rtol = 15
-	}
-	if atol <= 0 {
-		atol = 2
-	}
-	if frac <= 0 {
-		frac = 0.01
-	}
-	n := len(z)
-	valid := n - maxDim*delay
-	if valid < 50 || valid <= 2*w+10 {
-		return nil, fmt.Errorf("%s: %d samples leave %d vectors at dimension %d, delay %d, Theiler window %d: %w",
-			who, n, valid, maxDim+1, delay, w, ErrTooShort)
-	}
-	refs := evenlySpaced(valid, maxRef)
-	res := &FNNResult{Fractions: make([]float64, maxDim), Dim: maxDim, Delay: delay, Theiler: w, Refs: len(refs)}
-	q := make([]float64, maxDim)
+	maxDim := s.maxDim
+	rtol := orDefault(opts.RTol, 15)
+	atol := orDefault(opts.ATol, 2)
+	frac := orDefault(opts.Fraction, 0.01)
+	res := &FNNResult{Fractions: make([]float64, maxDim), Dim: maxDim, Delay: delay, Theiler: w, Refs: len(s.refs)}
 	for d := 1; d <= maxDim; d++ {
-		m := n - d*delay
-		pts := delayVectors(z, d, delay, m)
-		tree := newKDTree(pts, d, m)
 		falseCount, used := 0, 0
-		for _, i := range refs {
-			copy(q[:d], pts[i*d:(i+1)*d])
-			j, rd := tree.nearest(q[:d], i, w, true)
-			if j < 0 {
-				continue
-			}
-			extra := math.Abs(z[i+d*delay] - z[j+d*delay])
+		s.neighbours(d, true, func(rd, extra float64) {
 			rd1 := math.Sqrt(rd*rd + extra*extra)
 			if extra/rd > rtol || rd1 > atol {
 				falseCount++
 			}
 			used++
-		}
+		})
 		if used > 0 {
 			res.Fractions[d-1] = float64(falseCount) / float64(used)
 		}

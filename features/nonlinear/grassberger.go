@@ -83,35 +83,19 @@ const (
 // samples.
 func CorrelationDimension(x []float64, opts CorrDimOptions) (*CorrDimResult, error) {
 	const who = "nonlinear: correlation dimension"
-	z, err := standardize(x, 200, who)
+	z, emb, err := standardEmbed(x, opts.Embed, who)
 	if err != nil {
 		return nil, err
-	}
-	emb, err := embedStd(z, opts.Embed)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", who, err)
 	}
 	d, tau, w := emb.Dim, emb.Delay, emb.Theiler
 	M := len(z) - (d-1)*tau
 	if M < 2*w+50 {
 		return nil, fmt.Errorf("%s: %d vectors with Theiler window %d: %w", who, M, w, ErrTooShort)
 	}
-	maxPairs := opts.MaxPairs
-	if maxPairs <= 0 {
-		maxPairs = 10_000_000
-	}
-	minPairs := opts.MinPairs
-	if minPairs <= 0 {
-		minPairs = 500
-	}
-	maxC := opts.MaxC
-	if maxC <= 0 {
-		maxC = 0.2
-	}
-	decades := opts.Decades
-	if decades <= 0 {
-		decades = 1
-	}
+	maxPairs := orDefault(opts.MaxPairs, 10_000_000)
+	minPairs := orDefault(opts.MinPairs, 500)
+	maxC := orDefault(opts.MaxC, 0.2)
+	decades := orDefault(opts.Decades, 1)
 	pts := delayVectors(z, d, tau, 0)
 	res := &CorrDimResult{D2: math.NaN(), R2: math.NaN(), SlopeSpread: math.NaN(), Embedding: *emb}
 	hist := make([]int64, corrBins)

@@ -12,24 +12,10 @@ type lineFit struct {
 // fitLine fits y against x by ordinary least squares. It needs len(x) ≥ 2
 // with x not all equal; otherwise it returns NaN values.
 func fitLine(x, y []float64) lineFit {
-	n := float64(len(x))
 	if len(x) < 2 || len(x) != len(y) {
 		return lineFit{math.NaN(), math.NaN(), math.NaN()}
 	}
-	var mx, my float64
-	for i := range x {
-		mx += x[i]
-		my += y[i]
-	}
-	mx /= n
-	my /= n
-	var sxx, sxy, syy float64
-	for i := range x {
-		dx, dy := x[i]-mx, y[i]-my
-		sxx += dx * dx
-		sxy += dx * dy
-		syy += dy * dy
-	}
+	mx, my, sxx, sxy, syy := centredSums(x, y)
 	if sxx == 0 {
 		return lineFit{math.NaN(), math.NaN(), math.NaN()}
 	}
@@ -102,23 +88,29 @@ func pearson(x, y []float64) float64 {
 	if len(x) != len(y) || len(x) < 2 {
 		return math.NaN()
 	}
+	_, _, sxx, sxy, syy := centredSums(x, y)
+	if sxx == 0 || syy == 0 {
+		return math.NaN()
+	}
+	return sxy / math.Sqrt(sxx*syy)
+}
+
+// centredSums returns the means of x and y and the centred sums
+// Σ(x−x̄)², Σ(x−x̄)(y−ȳ) and Σ(y−ȳ)² (two passes). x and y must have the same
+// length ≥ 1.
+func centredSums(x, y []float64) (mx, my, sxx, sxy, syy float64) {
 	n := float64(len(x))
-	var mx, my float64
 	for i := range x {
 		mx += x[i]
 		my += y[i]
 	}
 	mx /= n
 	my /= n
-	var sxx, syy, sxy float64
 	for i := range x {
 		dx, dy := x[i]-mx, y[i]-my
 		sxx += dx * dx
-		syy += dy * dy
 		sxy += dx * dy
+		syy += dy * dy
 	}
-	if sxx == 0 || syy == 0 {
-		return math.NaN()
-	}
-	return sxy / math.Sqrt(sxx*syy)
+	return mx, my, sxx, sxy, syy
 }

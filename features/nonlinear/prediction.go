@@ -50,26 +50,13 @@ type PredictionResult struct {
 // samples. The series needs at least 200 samples.
 func Prediction(x []float64, opts PredictionOptions) (*PredictionResult, error) {
 	const who = "nonlinear: prediction"
-	z, err := standardize(x, 200, who)
+	z, emb, err := standardEmbed(x, opts.Embed, who)
 	if err != nil {
 		return nil, err
 	}
-	emb, err := embedStd(z, opts.Embed)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", who, err)
-	}
-	H := opts.MaxHorizon
-	if H <= 0 {
-		H = 10
-	}
-	maxTest := opts.MaxTest
-	if maxTest <= 0 {
-		maxTest = 1000
-	}
-	maxLib := opts.MaxLibrary
-	if maxLib <= 0 {
-		maxLib = 50000
-	}
+	H := orDefault(opts.MaxHorizon, 10)
+	maxTest := orDefault(opts.MaxTest, 1000)
+	maxLib := orDefault(opts.MaxLibrary, 50000)
 	d, tau := emb.Dim, emb.Delay
 	span := (d - 1) * tau // offset of the last coordinate
 	n := len(z)

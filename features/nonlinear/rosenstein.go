@@ -87,13 +87,9 @@ type LyapunovResult struct {
 // The series needs at least 200 samples (Embed) and room for 4·K vectors.
 func Lyapunov(x []float64, opts LyapunovOptions) (*LyapunovResult, error) {
 	const who = "nonlinear: lyapunov"
-	z, err := standardize(x, 200, who)
+	z, emb, err := standardEmbed(x, opts.Embed, who)
 	if err != nil {
 		return nil, err
-	}
-	emb, err := embedStd(z, opts.Embed)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", who, err)
 	}
 	d, tau, w := emb.Dim, emb.Delay, emb.Theiler
 	m := len(z) - (d-1)*tau
@@ -107,18 +103,9 @@ func Lyapunov(x []float64, opts LyapunovOptions) (*LyapunovResult, error) {
 		return nil, fmt.Errorf("%s: %d samples leave %d vectors for a %d-step curve with Theiler window %d: %w",
 			who, len(z), m, K, w, ErrTooShort)
 	}
-	maxRef := opts.MaxRef
-	if maxRef <= 0 {
-		maxRef = 2000
-	}
-	minR2 := opts.MinR2
-	if minR2 <= 0 {
-		minR2 = 0.98
-	}
-	minSteps := opts.MinSteps
-	if minSteps <= 0 {
-		minSteps = max(5, 4*tau)
-	}
+	maxRef := orDefault(opts.MaxRef, 2000)
+	minR2 := orDefault(opts.MinR2, 0.98)
+	minSteps := orDefault(opts.MinSteps, max(5, 4*tau))
 	pts := delayVectors(z, d, tau, 0)
 	tree := newKDTree(pts, d, L)
 	refs := evenlySpaced(L, maxRef)

@@ -42,14 +42,8 @@ type SampEnResult struct {
 // series needs at least M + 10 samples.
 func SampleEntropy(x []float64, opts SampEnOptions) (*SampEnResult, error) {
 	const who = "nonlinear: sample entropy"
-	m := opts.M
-	if m <= 0 {
-		m = 2
-	}
-	rel := opts.R
-	if rel <= 0 {
-		rel = 0.2
-	}
+	m := orDefault(opts.M, 2)
+	rel := orDefault(opts.R, 0.2)
 	_, sd, err := standardizeSD(x, m+10, who)
 	if err != nil {
 		return nil, err

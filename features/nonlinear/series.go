@@ -106,3 +106,13 @@ func evenlySpaced(n, k int) []int {
 	}
 	return out
 }
+
+// orDefault returns the option value v, or def when v ≤ 0: the zero value of
+// an option selects its documented default. A NaN option is kept as given
+// (NaN ≤ 0 is false), as the explicit comparisons it replaces did.
+func orDefault[T int | float64](v, def T) T {
+	if v <= 0 {
+		return def
+	}
+	return v
+}

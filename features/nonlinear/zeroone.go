@@ -67,14 +67,8 @@ type ZeroOneResult struct {
 // 100 samples after decimation.
 func ZeroOne(x []float64, opts ZeroOneOptions) (*ZeroOneResult, error) {
 	const who = "nonlinear: 0-1 test"
-	numC := opts.NumC
-	if numC <= 0 {
-		numC = 100
-	}
-	maxLen := opts.MaxLen
-	if maxLen <= 0 {
-		maxLen = 10000
-	}
+	numC := orDefault(opts.NumC, 100)
+	maxLen := orDefault(opts.MaxLen, 10000)
 	dec := max(1, opts.Decimate)
 	var y []float64
 	if dec == 1 {
