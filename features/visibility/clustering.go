@@ -6,6 +6,8 @@ import (
 	"slices"
 	"sync"
 	"sync/atomic"
+
+	"tracesift/internal/jsonsafe"
 )
 
 // Triangles returns, for every node, the number of triangles through it.
@@ -160,7 +162,9 @@ type ClusteringStats struct {
 }
 
 // MarshalJSON writes the stats with NaN as null.
-func (s ClusteringStats) MarshalJSON() ([]byte, error) { return marshalNaNSafe(s) }
+func (s ClusteringStats) MarshalJSON() ([]byte, error) {
+	return jsonsafe.Marshal(s, jsonsafe.Options{})
+}
 
 // clusteringBins is the number of histogram bins of ClusteringStats.
 const clusteringBins = 20

@@ -1,6 +1,10 @@
 package visibility
 
-import "math"
+import (
+	"math"
+
+	"tracesift/internal/jsonsafe"
+)
 
 // DegreeCount is one bin of a degree distribution: Count nodes have degree K,
 // a fraction P of all nodes.
@@ -26,7 +30,7 @@ type DegreeStats struct {
 }
 
 // MarshalJSON writes the stats with NaN as null.
-func (s DegreeStats) MarshalJSON() ([]byte, error) { return marshalNaNSafe(s) }
+func (s DegreeStats) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(s, jsonsafe.Options{}) }
 
 // Degrees returns the degree statistics of g: mean, standard deviation,
 // extremes, the Shannon entropy of P(k) in nats and P(k) itself. For an HVG

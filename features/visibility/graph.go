@@ -234,13 +234,7 @@ func fromPairs(n int, p *pairBuf, kind Kind) *Graph {
 			offsets[uint32(e)]++
 		}
 	}
-	var sum int64
-	for i := 0; i < n; i++ {
-		d := offsets[i]
-		offsets[i] = sum
-		sum += d
-	}
-	offsets[n] = sum
+	sum := degreesToOffsets(offsets)
 	adj := make([]int32, sum)
 	cur := make([]int32, n)
 	// Lower sections in emission order.
@@ -323,4 +317,19 @@ func Build(x []float64, kind Kind, opts Options) (*Graph, error) {
 
 func errTooMany(what string, max int64) error {
 	return fmt.Errorf("%s: more than %d edges (raise Options.MaxEdges): %w", what, max, ErrTooManyEdges)
+}
+
+// degreesToOffsets turns the degrees in offsets[:n] into CSR offsets in
+// place (an exclusive prefix sum), sets offsets[n] to their total and
+// returns it.
+func degreesToOffsets(offsets []int64) int64 {
+	n := len(offsets) - 1
+	var sum int64
+	for i := 0; i < n; i++ {
+		d := offsets[i]
+		offsets[i] = sum
+		sum += d
+	}
+	offsets[n] = sum
+	return sum
 }

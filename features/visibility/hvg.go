@@ -66,13 +66,7 @@ func Horizontal(x []float64, opts Options) (*Graph, error) {
 	for _, t := range lows {
 		offsets[t]++
 	}
-	var sum int64
-	for i := 0; i < n; i++ {
-		d := offsets[i]
-		offsets[i] = sum
-		sum += d
-	}
-	offsets[n] = sum
+	sum := degreesToOffsets(offsets)
 	adj := make([]int32, sum)
 	up := make([]int32, n) // filled part of each upper section
 	k := 0

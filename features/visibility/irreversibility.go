@@ -3,6 +3,8 @@ package visibility
 import (
 	"fmt"
 	"math"
+
+	"tracesift/internal/jsonsafe"
 )
 
 // IrreversibilityStats is the in/out-degree Kullback–Leibler divergence of a
@@ -22,7 +24,9 @@ type IrreversibilityStats struct {
 }
 
 // MarshalJSON writes the stats with NaN as null.
-func (s IrreversibilityStats) MarshalJSON() ([]byte, error) { return marshalNaNSafe(s) }
+func (s IrreversibilityStats) MarshalJSON() ([]byte, error) {
+	return jsonsafe.Marshal(s, jsonsafe.Options{})
+}
 
 // Irreversibility returns the Kullback–Leibler divergence between the out-
 // and in-degree distributions of g with every edge {i, j}, i < j, taken as

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+
+	"tracesift/internal/jsonsafe"
 )
 
 // Modularity returns the Newman–Girvan modularity of the partition of g given
@@ -72,7 +74,7 @@ type Partition struct {
 }
 
 // MarshalJSON writes the partition summary with NaN as null.
-func (p Partition) MarshalJSON() ([]byte, error) { return marshalNaNSafe(p) }
+func (p Partition) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(p, jsonsafe.Options{}) }
 
 // Louvain partitions g into communities by the Louvain method (Blondel,
 // Guillaume, Lambiotte & Lefebvre, J. Stat. Mech. (2008) P10008): repeatedly

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+
+	"tracesift/internal/jsonsafe"
 )
 
 // MeasureOptions selects and tunes the metrics of Measure. The zero value
@@ -67,7 +69,7 @@ type Metrics struct {
 
 // MarshalJSON writes the metrics with NaN and ±Inf as null (encoding/json
 // would refuse them).
-func (m Metrics) MarshalJSON() ([]byte, error) { return marshalNaNSafe(m) }
+func (m Metrics) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(m, jsonsafe.Options{}) }
 
 // Measure computes all metrics of g: degree statistics, tail fits (λ and γ),
 // clustering, assortativity, and unless switched off, Louvain modularity and

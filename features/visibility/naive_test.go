@@ -225,12 +225,13 @@ func TestNaturalMatchesNaive(t *testing.T) {
 	}
 }
 
-// TestNaturalRayShootingMatchesNaive forces the hull ray-shooting path of
-// the sweep from the first visible sample on (and, second, never), so that
-// both paths are checked against the definition on the whole corpus, plus
-// longer monotone and trending series.
+// TestNaturalRayShootingMatchesNaive forces each path of the sweep in turn:
+// hull ray shooting from the first fruitless step on, a hull probe after
+// every fruitless step with the walk going on, and the plain walk only, so
+// that all three are checked against the definition on the whole corpus,
+// plus longer monotone and trending series.
 func TestNaturalRayShootingMatchesNaive(t *testing.T) {
-	defer func(b, p int) { switchBase, switchPer = b, p }(switchBase, switchPer)
+	defer func(b, p, g int) { switchBase, switchPer, switchGap = b, p, g }(switchBase, switchPer, switchGap)
 	rng := rand.New(rand.NewPCG(7, 8))
 	names, series := testSeries(rng, 1200)
 	for _, tr := range []struct{ a, b float64 }{{0.3, 1}, {-0.05, 1}, {1, 0}} {
@@ -241,8 +242,8 @@ func TestNaturalRayShootingMatchesNaive(t *testing.T) {
 		names = append(names, fmt.Sprintf("trend%.2f", tr.a))
 		series = append(series, x)
 	}
-	for _, mode := range []struct{ base, per int }{{0, 0}, {1 << 30, 0}} {
-		switchBase, switchPer = mode.base, mode.per
+	for _, mode := range []struct{ base, per, gap int }{{0, 0, 0}, {1 << 30, 0, 0}, {1 << 30, 0, 1 << 30}} {
+		switchBase, switchPer, switchGap = mode.base, mode.per, mode.gap
 		for k, x := range series {
 			g, err := Natural(x, Options{})
 			if err != nil {

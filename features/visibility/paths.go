@@ -7,6 +7,8 @@ import (
 	"runtime"
 	"slices"
 	"sync"
+
+	"tracesift/internal/jsonsafe"
 )
 
 // PathOptions controls Paths and LocalDimension. The zero value means the
@@ -55,7 +57,7 @@ type PathStats struct {
 }
 
 // MarshalJSON writes the stats with NaN as null.
-func (p PathStats) MarshalJSON() ([]byte, error) { return marshalNaNSafe(p) }
+func (p PathStats) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(p, jsonsafe.Options{}) }
 
 // Paths returns the average shortest-path length and the diameter of g by
 // breadth-first search: from every node when n ≤ ExactMax, else from Sources
@@ -83,7 +85,7 @@ type DimensionStats struct {
 }
 
 // MarshalJSON writes the stats with NaN as null.
-func (d DimensionStats) MarshalJSON() ([]byte, error) { return marshalNaNSafe(d) }
+func (d DimensionStats) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(d, jsonsafe.Options{}) }
 
 // LocalDimension returns the local graph dimension averaged over nodes: for a
 // node i, N_i(r) is the number of nodes within r hops and d_i the

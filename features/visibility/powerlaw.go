@@ -3,6 +3,8 @@ package visibility
 import (
 	"fmt"
 	"math"
+
+	"tracesift/internal/jsonsafe"
 )
 
 // PowerLawOptions controls PowerLaw. The zero value means the defaults.
@@ -38,7 +40,7 @@ type PowerLawFit struct {
 }
 
 // MarshalJSON writes the fit with NaN as null.
-func (p PowerLawFit) MarshalJSON() ([]byte, error) { return marshalNaNSafe(p) }
+func (p PowerLawFit) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(p, jsonsafe.Options{}) }
 
 // PowerLaw fits a discrete power law to the tail of the degree distribution
 // of g by maximum likelihood, choosing k_min by minimising the

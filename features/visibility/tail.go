@@ -3,6 +3,8 @@ package visibility
 import (
 	"fmt"
 	"math"
+
+	"tracesift/internal/jsonsafe"
 )
 
 // TailOptions controls ExponentialTail. The zero value means the defaults.
@@ -50,7 +52,7 @@ type TailFit struct {
 }
 
 // MarshalJSON writes the fit with NaN as null.
-func (t TailFit) MarshalJSON() ([]byte, error) { return marshalNaNSafe(t) }
+func (t TailFit) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(t, jsonsafe.Options{}) }
 
 // ExponentialTail fits P(k) ~ e^{−λk} to the tail of the degree distribution
 // of g, the HVG statistic of Luque et al., Phys. Rev. E 80 (2009) 046103: an
