@@ -20,9 +20,12 @@ var nonlinearFamily = family{
 		{"pred_rho1", FamilyNonlinear, "nearest-neighbour (simplex) forecast correlation one sample ahead", "Sugihara & May, Nature 344 (1990) 734"},
 		{"pred_decay", FamilyNonlinear, "fall of the forecast correlation from 1 to 10 samples ahead (large for chaos, flat for noise)", "Sugihara & May (1990)"},
 		{"pred_rho_tau", FamilyNonlinear, "forecast correlation one embedding delay τ ahead (at most 50 samples): skill on the dynamics' own time scale, robust to fine sampling and measurement noise", "Sugihara & May (1990); Fraser & Swinney (1986)"},
+		{"pred_gain_tau", FamilyNonlinear, "simplex forecast correlation one embedding delay τ ahead minus that of the best global linear forecast from the same delay vectors: ≥ 0 for nonlinear determinism, clearly negative for linear correlated noise", "Casdagli, J. R. Stat. Soc. B 54 (1992) 303; Sugihara & May (1990)"},
 		{"perm_entropy_tau", FamilyNonlinear, "normalised permutation entropy, order 4, at the embedding delay τ instead of one sample: ordinal structure on the dynamics' time scale, robust to fine sampling and measurement noise", "Bandt & Pompe (2002); Zunino et al., Phys. Lett. A 376 (2012) 2615 (memory)"},
 		{"stat_complexity_tau", FamilyNonlinear, "Jensen–Shannon statistical complexity, order 4, at the embedding delay τ", "Rosso et al., Phys. Rev. Lett. 99 (2007) 154102; Zunino et al. (2012) (memory)"},
 		{"asym_abs", FamilyNonlinear, "|time-reversal asymmetry| of the increments ⟨Δx³⟩/⟨Δx²⟩^{3/2} (0 for linear Gaussian noise)", "Theiler et al., Physica D 58 (1992) 77"},
+		{"asym_tau", FamilyNonlinear, "|time-reversal asymmetry| of the increments over one embedding delay τ, x_{t+τ} − x_t: measurement noise dilutes it far less than at one sample", "Theiler et al., Physica D 58 (1992) 77 (statistic at lag τ)"},
+		{"irrev4_tau", FamilyNonlinear, "|⟨z_t z_{t+τ}³ − z_t³ z_{t+τ}⟩| / ⟨z_t² z_{t+τ}²⟩ at the embedding delay: time-reversal asymmetry that survives the odd symmetry x → −x (Lorenz, Chua), where the increment skewness vanishes", "fourth-order moment odd under time reversal (common practice; our normalisation)"},
 		{"sample_entropy", FamilyNonlinear, "sample entropy, m = 2, r = 0.2·sd (2.185 for Gaussian white noise)", "Richman & Moorman, Am. J. Physiol. 278 (2000) H2039"},
 		{"embed_dim", FamilyNonlinear, "embedding dimension from the saturation of Cao's E1", "Cao, Physica D 110 (1997) 43"},
 		{"cao_e2_dev", FamilyNonlinear, "largest |E2(d) − 1| of Cao's method (≈0 for independent noise, clearly positive for determinism)", "Cao, Physica D 110 (1997) 43"},
@@ -48,7 +51,7 @@ var (
 )
 
 func computeNonlinear(z []float64, o Options, s *sink) {
-	embedded := []string{"lyap_max", "lyap_delay", "lyap_credible", "lyap_jump", "corr_dim", "zero_one_k", "pred_rho1", "pred_decay", "pred_rho_tau", "perm_entropy_tau", "stat_complexity_tau", "embed_dim", "cao_e2_dev"}
+	embedded := []string{"lyap_max", "lyap_delay", "lyap_credible", "lyap_jump", "corr_dim", "zero_one_k", "pred_rho1", "pred_decay", "pred_rho_tau", "pred_gain_tau", "perm_entropy_tau", "stat_complexity_tau", "asym_tau", "irrev4_tau", "embed_dim", "cao_e2_dev"}
 	s.measure(func() error {
 		emb, err := nonlinear.Embed(z, featEmbed)
 		if err != nil {
@@ -138,9 +141,11 @@ func measureEmbedded(z []float64, emb *nonlinear.Embedding, o Options, s *sink) 
 		}
 		s.set("pred_rho1", r.Rho[0])
 		s.set("pred_decay", r.Rho[0]-r.Rho[9])
-		s.set("pred_rho_tau", r.Rho[min(emb.Delay, 50)-1])
+		h := min(emb.Delay, 50) - 1
+		s.set("pred_rho_tau", r.Rho[h])
+		s.set("pred_gain_tau", r.Rho[h]-r.LinearRho[h])
 		return nil
-	}, "pred_rho1", "pred_decay", "pred_rho_tau")
+	}, "pred_rho1", "pred_decay", "pred_rho_tau", "pred_gain_tau")
 	s.measure(func() error {
 		r, err := ordinal.Complexity(z, ordinal.Options{Order: 4, Delay: emb.Delay})
 		if err != nil {
@@ -150,4 +155,13 @@ func measureEmbedded(z []float64, emb *nonlinear.Embedding, o Options, s *sink) 
 		s.set("stat_complexity_tau", r.Complexity)
 		return nil
 	}, "perm_entropy_tau", "stat_complexity_tau")
+	s.measure(func() error {
+		r, err := nonlinear.Asymmetry(z, nonlinear.AsymmetryOptions{Lag: emb.Delay})
+		if err != nil {
+			return err
+		}
+		s.set("asym_tau", r.Abs)
+		s.set("irrev4_tau", math.Abs(r.Fourth))
+		return nil
+	}, "asym_tau", "irrev4_tau")
 }

@@ -3,6 +3,8 @@ package nonlinear
 import (
 	"fmt"
 	"math"
+
+	"gonum.org/v1/gonum/mat"
 )
 
 // PredictionOptions configures Prediction. The zero value gives the
@@ -27,6 +29,14 @@ type PredictionResult struct {
 	// Rho[h−1] is the Pearson correlation between forecasts and true
 	// values h samples ahead, h = 1..MaxHorizon.
 	Rho []float64
+	// LinearRho[h−1] is the same correlation for the best global linear
+	// (autoregressive) forecast from the same delay vectors, fitted by least
+	// squares on the library and scored on the same test vectors. Simplex
+	// skill above it points to nonlinear determinism; below it, to linear
+	// correlated noise, where the few nearest neighbours only add variance
+	// (Casdagli, J. R. Stat. Soc. B 54 (1992) 303: local versus global
+	// models). Zero at a horizon where the fit is singular.
+	LinearRho []float64
 	// Rho1 = Rho[0]; Decay = Rho(1) − Rho(h); Slope is the least-squares
 	// slope of Rho against h (negative when skill falls with horizon).
 	Rho1, Decay, Slope float64
@@ -108,6 +118,7 @@ func Prediction(x []float64, opts PredictionOptions) (*PredictionResult, error) 
 		}
 	}
 	res := &PredictionResult{Rho: make([]float64, H), Library: libEnd - libStart, Test: len(tests), Embedding: *emb}
+	res.LinearRho = linearForecastSkill(z, d, tau, libStart, libEnd, half, tests, tr)
 	hs := make([]float64, H)
 	for h := range fc {
 		res.Rho[h] = pearson(tr[h], fc[h])
@@ -122,4 +133,62 @@ func Prediction(x []float64, opts PredictionOptions) (*PredictionResult, error) 
 		res.Slope = fitLine(hs, res.Rho).Slope
 	}
 	return res, nil
+}
+
+// linearForecastSkill fits, for each horizon h = 1..len(truth), the least-
+// squares linear forecast x_{t+span+h} ≈ β_0 + Σ_j β_j x_{t+jτ} over the
+// library vectors t ∈ [libStart, libEnd) and returns its correlation with
+// truth[h−1] over the test vectors half+tests[i]. The normal equations are
+// (d+1)×(d+1) and shared by every horizon: one pass over the library.
+func linearForecastSkill(z []float64, d, tau, libStart, libEnd, half int, tests []int, truth [][]float64) []float64 {
+	H := len(truth)
+	span := (d - 1) * tau
+	p := d + 1
+	gram := make([]float64, p*p)
+	rhs := make([]float64, p*H)
+	row := make([]float64, p)
+	row[0] = 1
+	for t := libStart; t < libEnd; t++ {
+		for j := 0; j < d; j++ {
+			row[j+1] = z[t+j*tau]
+		}
+		for a := 0; a < p; a++ {
+			ra := row[a]
+			for b := a; b < p; b++ {
+				gram[a*p+b] += ra * row[b]
+			}
+			for h := 0; h < H; h++ {
+				rhs[a*H+h] += ra * z[t+span+h+1]
+			}
+		}
+	}
+	for a := 0; a < p; a++ {
+		for b := 0; b < a; b++ {
+			gram[a*p+b] = gram[b*p+a]
+		}
+	}
+	out := make([]float64, H)
+	var chol mat.Cholesky
+	if !chol.Factorize(mat.NewSymDense(p, gram)) {
+		return out
+	}
+	var beta mat.Dense
+	if err := chol.SolveTo(&beta, mat.NewDense(p, H, rhs)); err != nil {
+		return out
+	}
+	fc := make([]float64, len(tests))
+	for h := 0; h < H; h++ {
+		for i, off := range tests {
+			t := half + off
+			s := beta.At(0, h)
+			for j := 0; j < d; j++ {
+				s += beta.At(j+1, h) * z[t+j*tau]
+			}
+			fc[i] = s
+		}
+		if r := pearson(truth[h], fc); !math.IsNaN(r) {
+			out[h] = r
+		}
+	}
+	return out
 }

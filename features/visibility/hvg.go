@@ -22,63 +22,75 @@ func Horizontal(x []float64, opts Options) (*Graph, error) {
 		return nil, err
 	}
 	n := len(x)
-	// One stack pass records the lower neighbours of every j, grouped by j
-	// and descending within a group (at most 2n of them, < 2n edges); a
-	// second, branch-free pass lays them into CSR: j's lower section is its
-	// group reversed, and each t receives j in its upper section in ascending
-	// order of j.
+	// Two passes of the same stack walk. The first counts degrees (into
+	// offsets) and lower neighbours; the second writes the CSR arrays
+	// directly: j meets its lower neighbours nearest first, so its lower
+	// section is filled backwards, and each sample on the stack carries the
+	// next free slot of its upper section, which receives j in ascending
+	// order. Walking twice costs far less than keeping the edges between
+	// the passes: the output arrays are all the memory there is, which
+	// matters at 10^7 samples, where touching fresh memory dominates.
+	offsets := make([]int64, n+1)
 	lower := make([]int32, n)
-	lows := make([]int32, 0, 2*n)
 	stack := make([]int32, 0, 64)
+	var edges int64
 	for j, xj := range x {
+		k := int32(0)
 		for len(stack) > 0 {
 			t := stack[len(stack)-1]
 			if x[t] >= xj {
 				break
 			}
-			lows = append(lows, t)
+			offsets[t]++
+			k++
 			stack = stack[:len(stack)-1]
 		}
 		if len(stack) > 0 {
 			t := stack[len(stack)-1]
-			lows = append(lows, t)
+			offsets[t]++
+			k++
 			if x[t] == xj {
 				stack = stack[:len(stack)-1]
 			}
 		}
-		lower[j] = int32(len(lows))
+		lower[j] = k
+		offsets[j] += int64(k)
+		edges += int64(k)
 		stack = append(stack, int32(j))
 	}
-	edges := int64(len(lows))
 	if max := opts.maxEdges(); edges > max {
 		return nil, errTooMany("horizontal visibility", max)
 	}
-	// lower[j] holds the running count; turn it into per-node counts and
-	// degrees.
-	offsets := make([]int64, n+1)
-	prev := int32(0)
-	for j := 0; j < n; j++ {
-		c := lower[j] - prev
-		prev = lower[j]
-		lower[j] = c
-		offsets[j] += int64(c)
+	degreesToOffsets(offsets)
+	adj := make([]int32, 2*edges)
+	type open struct {
+		t    int32
+		next int64 // next free slot of t's upper section
 	}
-	for _, t := range lows {
-		offsets[t]++
-	}
-	sum := degreesToOffsets(offsets)
-	adj := make([]int32, sum)
-	up := make([]int32, n) // filled part of each upper section
-	k := 0
-	for j := 0; j < n; j++ {
+	st := make([]open, 0, cap(stack))
+	for j, xj := range x {
 		p := offsets[j] + int64(lower[j]) // j's lower section, filled backwards
-		for _, t := range lows[k : k+int(lower[j])] {
+		for len(st) > 0 {
+			e := st[len(st)-1]
+			if x[e.t] >= xj {
+				break
+			}
 			p--
-			adj[p] = t
-			adj[offsets[t]+int64(lower[t]+up[t])] = int32(j)
-			up[t]++
+			adj[p] = e.t
+			adj[e.next] = int32(j)
+			st = st[:len(st)-1]
 		}
-		k += int(lower[j])
+		if len(st) > 0 {
+			e := &st[len(st)-1]
+			p--
+			adj[p] = e.t
+			adj[e.next] = int32(j)
+			e.next++
+			if x[e.t] == xj {
+				st = st[:len(st)-1]
+			}
+		}
+		st = append(st, open{int32(j), offsets[j] + int64(lower[j])})
 	}
 	return &Graph{kind: KindHVG, offsets: offsets, adj: adj, lower: lower}, nil
 }

@@ -8,7 +8,10 @@ package visibility
 // CSR arrays on long series, where the O(n³) definition (naive_test.go) is
 // too slow to run. It shares the exact predicate (above), the pair buffer
 // (pairBuf, fromPairs, still used by FromEdges) and the hull tree with the
-// package; those are checked against the definition in naive_test.go.
+// package; those are checked against the definition in naive_test.go. It
+// also keeps the previous HVG builder (one pass keeping every edge, then a
+// placement pass), replaced by two passes that write the CSR arrays
+// directly.
 
 import (
 	"fmt"
@@ -178,6 +181,74 @@ func (s *legacySweeper) shoot(m, lo, hi, dir int, q *rayQuery) {
 	}
 }
 
+// legacyHorizontal is the previous HVG builder: one stack pass keeping
+// every edge, then a placement pass.
+func legacyHorizontal(x []float64, opts Options) (*Graph, error) {
+	if err := checkSeries(x, "horizontal visibility"); err != nil {
+		return nil, err
+	}
+	n := len(x)
+	// One stack pass records the lower neighbours of every j, grouped by j
+	// and descending within a group (at most 2n of them, < 2n edges); a
+	// second, branch-free pass lays them into CSR: j's lower section is its
+	// group reversed, and each t receives j in its upper section in ascending
+	// order of j.
+	lower := make([]int32, n)
+	lows := make([]int32, 0, 2*n)
+	stack := make([]int32, 0, 64)
+	for j, xj := range x {
+		for len(stack) > 0 {
+			t := stack[len(stack)-1]
+			if x[t] >= xj {
+				break
+			}
+			lows = append(lows, t)
+			stack = stack[:len(stack)-1]
+		}
+		if len(stack) > 0 {
+			t := stack[len(stack)-1]
+			lows = append(lows, t)
+			if x[t] == xj {
+				stack = stack[:len(stack)-1]
+			}
+		}
+		lower[j] = int32(len(lows))
+		stack = append(stack, int32(j))
+	}
+	edges := int64(len(lows))
+	if max := opts.maxEdges(); edges > max {
+		return nil, errTooMany("horizontal visibility", max)
+	}
+	// lower[j] holds the running count; turn it into per-node counts and
+	// degrees.
+	offsets := make([]int64, n+1)
+	prev := int32(0)
+	for j := 0; j < n; j++ {
+		c := lower[j] - prev
+		prev = lower[j]
+		lower[j] = c
+		offsets[j] += int64(c)
+	}
+	for _, t := range lows {
+		offsets[t]++
+	}
+	sum := degreesToOffsets(offsets)
+	adj := make([]int32, sum)
+	up := make([]int32, n) // filled part of each upper section
+	k := 0
+	for j := 0; j < n; j++ {
+		p := offsets[j] + int64(lower[j]) // j's lower section, filled backwards
+		for _, t := range lows[k : k+int(lower[j])] {
+			p--
+			adj[p] = t
+			adj[offsets[t]+int64(lower[t]+up[t])] = int32(j)
+			up[t]++
+		}
+		k += int(lower[j])
+	}
+	return &Graph{kind: KindHVG, offsets: offsets, adj: adj, lower: lower}, nil
+}
+
 // sameCSR returns an error describing the first difference between the CSR
 // arrays of g and want (offsets, adjacency, in-degrees and kind).
 func sameCSR(g, want *Graph) error {
@@ -205,9 +276,9 @@ func sameCSR(g, want *Graph) error {
 // the sweep distinguishes — noise (shallow Cartesian tree), Brownian motion
 // (deep tree, many edges, ray shooting now and then), trend + noise (ray
 // shooting on most sweeps), integer walks and three-level noise (ties and
-// collinear triples through the exact predicate) and a concave path.
-// Reference: the previous builder, which passed the checks against the
-// definition in naive_test.go.
+// collinear triples through the exact predicate) and a concave path; and
+// the same for the HVG builder. Reference: the previous builders, which
+// passed the checks against the definitions in naive_test.go.
 func TestBuildersMatchLegacy(t *testing.T) {
 	rng := rand.New(rand.NewPCG(11, 12))
 	const n = 200_000
@@ -242,6 +313,17 @@ func TestBuildersMatchLegacy(t *testing.T) {
 		}
 		if err := sameCSR(g, want); err != nil {
 			t.Errorf("nvg %s: %v", name, err)
+		}
+		h, err := Horizontal(x, Options{})
+		if err != nil {
+			t.Fatalf("hvg %s: %v", name, err)
+		}
+		want, err = legacyHorizontal(x, Options{})
+		if err != nil {
+			t.Fatalf("legacy hvg %s: %v", name, err)
+		}
+		if err := sameCSR(h, want); err != nil {
+			t.Errorf("hvg %s: %v", name, err)
 		}
 	}
 }
