@@ -113,10 +113,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <p class="line">{{.ClassLine}}</p>
 </div>
 <p class="caution"><strong>Caution.</strong> {{.Caution}}</p>
-<figure>
-{{.ProbFig.SVG}}
-<figcaption>{{.ProbFig.Caption}}</figcaption>
-</figure>
+{{template "figure" .ProbFig}}
 {{- if .Reasons}}
 <p><strong>Why undetermined:</strong></p>
 <ul class="notes">
@@ -149,41 +146,25 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 
 <section id="trace">
 <h2><span class="no">2</span>The trace and its increments</h2>
-{{- range .TraceFailures}}
-<p class="failed">Not shown: {{.}}</p>
-{{- end}}
+{{- template "failures" .TraceFailures}}
 {{- with .TraceFig}}
-<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>
+{{template "figure" .}}
 {{- end}}
 {{- with .IncFig}}
-<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>
+{{template "figure" .}}
 {{- end}}
 </section>
 
 <section id="degrees">
 <h2><span class="no">3</span>Visibility graphs: degree distributions</h2>
 <p>Each sample becomes a node. In the horizontal visibility graph two samples are linked when every sample between them is lower than both; in the natural visibility graph, when every sample between them lies below the straight line joining them. {{.DegreesNote}}</p>
-{{- range .DegreesFailures}}
-<p class="failed">Not shown: {{.}}</p>
-{{- end}}
+{{- template "failures" .DegreesFailures}}
 <div class="pair">
 {{- with .HVGFig}}
-<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>
+{{template "figure" .}}
 {{- end}}
 {{- with .NVGFig}}
-<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>
+{{template "figure" .}}
 {{- end}}
 </div>
 {{- if .GraphRows}}
@@ -199,16 +180,10 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <h2><span class="no">4</span>Visibility graphs: local clustering</h2>
 <div class="pair">
 {{- with .ClustFig}}
-<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>
+{{template "figure" .}}
 {{- end}}
 {{- with .CkFig}}
-<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>
+{{template "figure" .}}
 {{- end}}
 </div>
 {{- if .ClusteringNote}}
@@ -220,14 +195,9 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 
 <section id="plane">
 <h2><span class="no">5</span>Complexity–entropy plane</h2>
-{{- range .PlaneFailures}}
-<p class="failed">Not shown: {{.}}</p>
-{{- end}}
+{{- template "failures" .PlaneFailures}}
 {{- with .PlaneFig}}
-<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>
+{{template "figure" .}}
 {{- end}}
 {{- if .PlaneNote}}
 <p>{{.PlaneNote}}</p>
@@ -264,10 +234,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 </table>
 {{- end}}
 {{- with .SurrogateFig}}
-<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>
+{{template "figure" .}}
 {{- end}}
 {{- if .SurrogateNotes}}
 <ul class="notes">
@@ -325,4 +292,10 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <footer>{{.Footer}}</footer>
 </body>
 </html>
-`
+{{/* Sub-templates: a figure with its caption; the sections' "not shown" lines. */ -}}
+{{define "figure"}}<figure>
+{{.SVG}}
+<figcaption>{{.Caption}}</figcaption>
+</figure>{{end}}
+{{- define "failures"}}{{range .}}
+<p class="failed">Not shown: {{.}}</p>{{end}}{{end}}`
