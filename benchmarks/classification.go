@@ -132,7 +132,7 @@ func runClassification(m *classifier.Model, o Options) (*ClassificationResult, e
 		Lengths:     slices.Clone(o.Lengths),
 		Classes:     classes,
 		Design: fmt.Sprintf("classifier.ReferencePlan with seed %d, PerClass %d and MinLength = MaxLength = L for each length L (the same parameter draws and series seeds at every length); "+
-			"each planned series is generated at every SNR (its own noise realisation on the same clean series) and screened with classifier.Screen (feature seed %d)",
+			"each planned series is recorded clean and with white measurement noise at every SNR (its own noise realisation on the same clean series; none of the reference set's other recording artefacts) and screened with classifier.Screen (feature seed %d)",
 			PlanSeedOffset+o.Seed, o.PerClass, o.Seed),
 	}
 	for _, s := range o.SNRs {
@@ -153,7 +153,12 @@ func runClassification(m *classifier.Model, o Options) (*ClassificationResult, e
 		}
 		for si, snr := range o.SNRs {
 			for _, s := range p {
-				s.SNR = snr
+				// The grid measures one artefact at a time: white
+				// measurement noise at the cell's SNR, nothing else.
+				s.Recording = generators.Recording{}
+				if !math.IsInf(snr, 1) {
+					s.Recording = generators.Recording{Noise: generators.NoiseWhite, SNR: snr}
+				}
 				jobs = append(jobs, job{li, si, s})
 			}
 		}
@@ -196,11 +201,11 @@ func runClassification(m *classifier.Model, o Options) (*ClassificationResult, e
 	for k, j := range jobs {
 		s := j.series
 		if err := errs[k]; err != nil {
-			if errors.Is(err, generators.ErrDiverged) || errors.Is(err, features.ErrConstant) {
+			if errors.Is(err, generators.ErrDiverged) || errors.Is(err, generators.ErrConstant) || errors.Is(err, features.ErrConstant) || errors.Is(err, classifier.ErrFewCycles) {
 				res.Dropped++
 				continue
 			}
-			res.Failures = append(res.Failures, fmt.Sprintf("%s n=%d %s seed %d: %v", s.System, s.N, snrLabel(s.SNR), s.Seed, err))
+			res.Failures = append(res.Failures, fmt.Sprintf("%s n=%d %s seed %d: %v", s.System, s.N, snrLabel(s.SNR()), s.Seed, err))
 			continue
 		}
 		v := verdicts[k]
@@ -242,7 +247,7 @@ func runClassification(m *classifier.Model, o Options) (*ClassificationResult, e
 			}
 		}
 		res.Series = append(res.Series, SeriesResult{
-			System: s.System, Params: s.Params, N: s.N, SNR: Float(s.SNR), Seed: s.Seed, Class: s.Class,
+			System: s.System, Params: s.Params, N: s.N, SNR: Float(s.SNR()), Seed: s.Seed, Class: s.Class,
 			Top: v.Top, Verdict: v.Class, Probability: Float(top), Windows: v.Windows,
 		})
 	}

@@ -15,6 +15,7 @@ func ExampleRun() {
 		Seeds:              2,
 		Invariants:         []string{"perm_missing_d3/logistic", "hvg_mean_degree/white"},
 		SkipClassification: true,
+		SkipHoldout:        true,
 		SkipPictures:       true,
 		SkipThroughput:     true,
 	})

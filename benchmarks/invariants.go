@@ -417,7 +417,7 @@ func invariantSpecs() ([]invariantSpec, error) {
 		return 4*harmonic(n)/float64(n) + 0.5/math.Sqrt(float64(n))
 	}
 	hvgEst := "visibility.Horizontal + visibility.Degrees (mean degree)"
-	for _, sys := range []string{"white", "student-t"} {
+	for _, sys := range []string{"white", "student-t", "stable", "iid"} {
 		fromRegistry(invariantSpec{id: "hvg_mean_degree/" + sys, system: sys, name: "hvg_mean_degree", estimator: hvgEst, check: CheckValue,
 			tol: hvgMeanTol, tolSource: tolHVGMean, n: nHVG, measure: measureHVGMeanDegree})
 	}
@@ -440,7 +440,7 @@ func invariantSpecs() ([]invariantSpec, error) {
 
 	const n15 = 1 << 15
 	peEst := "ordinal.Entropy (order 4, delay 1, as the perm_entropy feature)"
-	for _, sys := range []string{"white", "student-t"} {
+	for _, sys := range []string{"white", "student-t", "stable", "iid"} {
 		fromRegistry(invariantSpec{id: "perm_entropy/" + sys, system: sys, name: "perm_entropy", estimator: peEst, check: CheckValue,
 			tol: func(n int, _ float64) float64 { return 2 * permBiasIID(4, n) }, tolSource: tolPE, n: n15, measure: measurePermEntropy})
 	}
@@ -481,10 +481,25 @@ func invariantSpecs() ([]invariantSpec, error) {
 
 // skipReasons says why registry invariants without a check are left out.
 var skipReasons = map[string]string{
-	"lyap_sum":          "needs the whole Lyapunov spectrum, which no series estimator of the project measures (checked against the equations in the generators tests)",
-	"invariant_density": "a density, not a number: checked by a Kolmogorov–Smirnov test in the generators tests",
-	"mean":              "a moment of the generator, not a feature: checked in the generators tests",
-	"variance":          "a moment of the generator, not a feature: checked in the generators tests",
+	"lyap_sum":                 "needs the whole Lyapunov spectrum, which no series estimator of the project measures (checked against the equations in the generators tests)",
+	"invariant_density":        "a density, not a number: checked by a Kolmogorov–Smirnov test in the generators tests",
+	"stationary_density":       "a density, not a number: checked by a Kolmogorov–Smirnov test against the Boltzmann law in the generators tests",
+	"mean":                     "a moment of the generator, not a feature: checked in the generators tests",
+	"variance":                 "a moment of the generator, not a feature: checked in the generators tests",
+	"lyap_max":                 "the series estimator is checked here on the systems listed above; the exponents of the other systems are checked against their own equations (Benettin's tangent-space method) in the generators tests",
+	"lag1_autocorrelation":     "long-memory and jump processes need a tolerance the suite's Bartlett rule does not give; checked against the generator's analytic autocovariance in the generators tests",
+	"dfa_alpha":                "checked against the analytic autocovariance (Hosking 1981) in the generators tests; the suite checks DFA on fGn, white noise and Brownian motion",
+	"spectral_beta":            "checked against the analytic spectrum in the generators tests; the suite checks the spectral slope on fGn, fBm, white noise and Brownian motion",
+	"sideband_ratio":           "a property of the waveform's construction (AM sidebands m/2), checked in the generators tests",
+	"carrier_line":             "a property of the waveform's construction (FM Bessel sidebands), checked in the generators tests",
+	"rotation_number":          "a property of the map's orbit, not a feature: checked in the generators tests",
+	"regime1_fraction":         "a property of the generator's hidden regime path, not a feature: checked in the generators tests",
+	"tau_q2":                   "a multifractal scaling exponent of the cascade's construction, checked in the generators tests",
+	"change_points_per_sample": "a property of the generator's hidden change points, not a feature: checked in the generators tests",
+	"self_similarity":          "a scaling property of the walk's increments, checked through the characteristic function in the generators tests",
+	"tail_exponent":            "a property of the stable law (tail P(|X| > x) ~ x^−α), checked through the characteristic function and KS tests in the generators tests",
+	"kurtosis":                 "a moment of the generator, not a feature: checked in the generators tests",
+	"spectral_peak":            "the resonance of the oscillator's transfer function, checked against the analytic spectrum in the generators tests",
 }
 
 // skippedInvariants lists the registry invariants no spec covers.

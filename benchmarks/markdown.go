@@ -106,7 +106,7 @@ func WriteMarkdown(w io.Writer, r *Result) error {
 	if m := r.Model; m != nil {
 		fmt.Fprintf(bw, " Model: %s (%d trees, seed %d, schema %s; out-of-bag accuracy %s", m.Source, m.Trees, m.Seed, m.Schema, pct(m.OOBAccuracy))
 		if !math.IsNaN(float64(m.CVAccuracy)) {
-			fmt.Fprintf(bw, ", grouped cross-validation %s", pct(m.CVAccuracy))
+			fmt.Fprintf(bw, ", %s %s", m.CVMethod, pct(m.CVAccuracy))
 		}
 		fmt.Fprintf(bw, "); trained on: %s.", m.Description)
 	}
@@ -117,6 +117,9 @@ func WriteMarkdown(w io.Writer, r *Result) error {
 	}
 	if c := r.Classification; c != nil {
 		writeClassification(bw, c)
+	}
+	if h := r.Holdout; h != nil {
+		writeHoldout(bw, h)
 	}
 	if d := r.Degrees; d != nil {
 		writeDegrees(bw, d)
@@ -134,8 +137,8 @@ func WriteMarkdown(w io.Writer, r *Result) error {
 		}
 	}
 	if e := r.Elapsed; e != nil {
-		fmt.Fprintf(bw, "\nWall time (machine-dependent): invariants %ss, classification %ss, pictures %ss, throughput %ss, total %ss.\n",
-			num(float64(e.Invariants)), num(float64(e.Classification)), num(float64(e.Pictures)), num(float64(e.Throughput)), num(float64(e.Total)))
+		fmt.Fprintf(bw, "\nWall time (machine-dependent): invariants %ss, classification %ss, leave-one-family-out %ss, pictures %ss, throughput %ss, total %ss.\n",
+			num(float64(e.Invariants)), num(float64(e.Classification)), num(float64(e.Holdout)), num(float64(e.Pictures)), num(float64(e.Throughput)), num(float64(e.Total)))
 	}
 	return bw.Flush()
 }
@@ -312,7 +315,7 @@ func writeClassification(w io.Writer, c *ClassificationResult) {
 		fmt.Fprintln(w)
 	}
 	if c.Dropped > 0 {
-		fmt.Fprintf(w, "\n%d planned series were dropped (orbit escaped or constant), as classifier.BuildReference drops them.\n", c.Dropped)
+		fmt.Fprintf(w, "\n%d planned series were dropped (orbit escaped or constant, or a deterministic record with too few cycles), as classifier.BuildReference drops them.\n", c.Dropped)
 	}
 	if len(c.Failures) > 0 {
 		fmt.Fprintf(w, "\n%d series failed:\n\n", len(c.Failures))
@@ -391,4 +394,36 @@ func duration(s float64) string {
 		return strconv.FormatFloat(s*1e3, 'g', 3, 64) + " ms"
 	}
 	return strconv.FormatFloat(s, 'g', 3, 64) + " s"
+}
+
+// writeHoldout writes the leave-one-family-out section: headline, the
+// breakdowns and the reliability table.
+func writeHoldout(w io.Writer, h *HoldoutResult) {
+	v := h.Validation
+	o := v.Overall
+	fmt.Fprintf(w, "\n## Leave-one-family-out validation\n\n")
+	fmt.Fprintf(w, "What to expect on kinds of dynamics the model has never seen: %s.", h.Design)
+	if h.Dropped > 0 {
+		fmt.Fprintf(w, " %d planned series were dropped (orbit escaped or constant, or a deterministic record with too few cycles).", h.Dropped)
+	}
+	fmt.Fprintf(w, "\n\nAccuracy **%s** over %d series; chaotic versus stochastic (neither taken for the other) **%s** of %d; %d undetermined (accuracy on the rest %s). Calibration of the top-class probability: Brier score %s, expected calibration error **%s** (%d equal-width bins).\n",
+		pct(Float(o.Accuracy)), o.Rows, pct(Float(o.ChaosNoise)), o.ChaosNoiseRows, o.Undetermined, pct(Float(o.DeterminedAccuracy)),
+		num(v.Calibration.Brier), num(v.Calibration.ECE), len(v.Calibration.Bins))
+	for _, st := range v.Strata {
+		fmt.Fprintf(w, "\n| %s | classes | series | accuracy | chaos vs noise | undetermined |\n|---|---|---|---|---|---|\n", st.Name)
+		for _, sc := range st.Scores {
+			cn := "—"
+			if sc.ChaosNoiseRows > 0 {
+				cn = pct(Float(sc.ChaosNoise))
+			}
+			fmt.Fprintf(w, "| %s | %s | %d | %s | %s | %d |\n", cell(sc.Label), strings.Join(sc.Classes, ", "), sc.Rows, pct(Float(sc.Accuracy)), cn, sc.Undetermined)
+		}
+	}
+	fmt.Fprintf(w, "\nReliability (rows whose top probability falls in each bin, their mean top probability and the accuracy it delivered):\n\n| top probability | series | mean probability | accuracy |\n|---|---|---|---|\n")
+	for _, b := range v.Calibration.Bins {
+		if b.Rows == 0 {
+			continue
+		}
+		fmt.Fprintf(w, "| %s–%s | %d | %s | %s |\n", num(b.Lo), num(b.Hi), b.Rows, num(b.Confidence), pct(Float(b.Accuracy)))
+	}
 }

@@ -70,6 +70,13 @@ type Options struct {
 	// (default all of classifier.ReferenceSystems).
 	Systems []string
 
+	// HoldoutPerClass is the per-class size of the fresh reference set of
+	// the leave-one-family-out section (Quick 120, Full 900) and
+	// HoldoutTrees the size of each held-out forest (Quick 10, Full 30).
+	// HoldoutMaxLength caps its series lengths (default 20000, as the
+	// training set; tests shrink it).
+	HoldoutPerClass, HoldoutTrees, HoldoutMaxLength int
+
 	// ThroughputSizes are the series lengths timed (Quick 10^3..10^5 in
 	// half decades, Full up to 10^6).
 	ThroughputSizes []int
@@ -88,10 +95,11 @@ type Options struct {
 	// distributions are drawn (default 10^5).
 	DegreeLength int
 
-	// SkipInvariants, SkipClassification, SkipPictures (HVG degree
-	// distributions and the complexity–entropy plane) and SkipThroughput
-	// leave a section out (its field in the Result stays empty).
-	SkipInvariants, SkipClassification, SkipPictures, SkipThroughput bool
+	// SkipInvariants, SkipClassification, SkipHoldout, SkipPictures (HVG
+	// degree distributions and the complexity–entropy plane) and
+	// SkipThroughput leave a section out (its field in the Result stays
+	// empty).
+	SkipInvariants, SkipClassification, SkipHoldout, SkipPictures, SkipThroughput bool
 
 	// Workers is the number of series measured at once (default
 	// GOMAXPROCS); it never changes the result.
@@ -112,6 +120,8 @@ func presetOf(s Scale) (Options, error) {
 			Lengths:           []int{1000, 5000},
 			SNRs:              []float64{math.Inf(1), 10},
 			PerClass:          9,
+			HoldoutPerClass:   120,
+			HoldoutTrees:      10,
 			ThroughputSizes:   []int{1000, 3000, 10000, 30000, 100000},
 			ThroughputRepeats: 3,
 			SlowCall:          0.15,
@@ -127,6 +137,8 @@ func presetOf(s Scale) (Options, error) {
 			Lengths:           []int{500, 1000, 2000, 5000, 20000},
 			SNRs:              []float64{math.Inf(1), 40, 20, 10},
 			PerClass:          51,
+			HoldoutPerClass:   900,
+			HoldoutTrees:      30,
 			ThroughputSizes:   []int{1000, 3000, 10000, 30000, 100000, 300000, 1000000},
 			ThroughputRepeats: 3,
 			SlowCall:          2,
@@ -160,6 +172,18 @@ func (o Options) Resolved() (Options, error) {
 	}
 	if o.PerClass <= 0 {
 		o.PerClass = p.PerClass
+	}
+	if o.HoldoutPerClass <= 0 {
+		o.HoldoutPerClass = p.HoldoutPerClass
+	}
+	if o.HoldoutTrees <= 0 {
+		o.HoldoutTrees = p.HoldoutTrees
+	}
+	if o.HoldoutMaxLength <= 0 {
+		o.HoldoutMaxLength = 20000
+	}
+	if o.HoldoutMaxLength < 512 {
+		return Options{}, fmt.Errorf("%w: holdout length cap %d: want at least 512", ErrOptions, o.HoldoutMaxLength)
 	}
 	if len(o.ThroughputSizes) == 0 {
 		o.ThroughputSizes = p.ThroughputSizes

@@ -13,6 +13,8 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
+
+	"tracesift/classifier"
 )
 
 // Figure is one PNG plot of a Result.
@@ -41,6 +43,11 @@ func Figures(r *Result) []Figure {
 		out = append(out, Figure{"accuracy_snr.png",
 			"Classification accuracy against the observational signal-to-noise ratio (all lengths pooled).",
 			func(w io.Writer) error { return plotAccuracy(w, c, false) }})
+	}
+	if h := r.Holdout; h != nil {
+		out = append(out, Figure{"reliability.png",
+			"Reliability diagram of the leave-one-family-out predictions: mean top-class probability against the accuracy it delivered, per bin (point area ∝ series in the bin); the diagonal is perfect calibration.",
+			func(w io.Writer) error { return plotReliability(w, h.Validation.Calibration) }})
 	}
 	if d := r.Degrees; d != nil {
 		out = append(out, Figure{"hvg_degrees.png",
@@ -446,4 +453,57 @@ func plotThroughput(w io.Writer, t *ThroughputResult) error {
 	}
 	p.Add(plotter.NewGrid())
 	return renderLegendRight(w, p, 8.5*vg.Inch, 4.5*vg.Inch, 1.8*vg.Inch)
+}
+
+// plotReliability draws the reliability diagram of a calibration.
+func plotReliability(w io.Writer, c classifier.Calibration) error {
+	p := plot.New()
+	p.Title.Text = fmt.Sprintf("Reliability (ECE %.3f, Brier %.3f)", c.ECE, c.Brier)
+	p.X.Label.Text = "mean top-class probability"
+	p.Y.Label.Text = "accuracy"
+	p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = 0, 1, 0, 1
+	diag, err := plotter.NewLine(plotter.XYs{{X: 0, Y: 0}, {X: 1, Y: 1}})
+	if err != nil {
+		return err
+	}
+	diag.LineStyle.Color = color.Gray{Y: 140}
+	diag.LineStyle.Dashes = []vg.Length{vg.Points(4), vg.Points(3)}
+	p.Add(diag)
+	p.Legend.Add("perfect calibration", diag)
+	var pts plotter.XYs
+	total := 0
+	for _, b := range c.Bins {
+		total += b.Rows
+		if b.Rows > 0 {
+			pts = append(pts, plotter.XY{X: b.Confidence, Y: b.Accuracy})
+		}
+	}
+	if len(pts) == 0 {
+		return render(w, p, 5*vg.Inch, 5*vg.Inch)
+	}
+	ln, err := plotter.NewLine(pts)
+	if err != nil {
+		return err
+	}
+	ln.LineStyle.Width = vg.Points(1.5)
+	p.Add(ln)
+	k := 0
+	for _, b := range c.Bins {
+		if b.Rows == 0 {
+			continue
+		}
+		sc, err := plotter.NewScatter(plotter.XYs{pts[k]})
+		if err != nil {
+			return err
+		}
+		sc.GlyphStyle.Shape = draw.CircleGlyph{}
+		sc.GlyphStyle.Radius = vg.Points(2 + 10*math.Sqrt(float64(b.Rows)/float64(total)))
+		sc.GlyphStyle.Color = color.Black
+		p.Add(sc)
+		k++
+	}
+	p.Legend.Add("held-out predictions", ln)
+	p.Legend.Top, p.Legend.Left = false, false // bottom right, clear of the curve
+	p.Add(plotter.NewGrid())
+	return render(w, p, 5*vg.Inch, 5*vg.Inch)
 }

@@ -26,8 +26,10 @@ type Result struct {
 	// Invariants and SkippedInvariants: section 1.
 	Invariants        []InvariantRow     `json:"invariants"`
 	SkippedInvariants []SkippedInvariant `json:"skipped_invariants"`
-	// Classification: section 2.
+	// Classification: section 2, on fresh seeds of the reference systems.
 	Classification *ClassificationResult `json:"classification"`
+	// Holdout: section 2b, leave-one-family-out on a fresh reference set.
+	Holdout *HoldoutResult `json:"holdout"`
 	// Degrees and Plane picture the method on the reference systems.
 	Degrees *DegreeResult `json:"hvg_degrees"`
 	Plane   *PlaneResult  `json:"complexity_entropy"`
@@ -47,6 +49,9 @@ type Settings struct {
 	Lengths           []int     `json:"lengths"`
 	SNRs              []Float   `json:"snr_db"`
 	PerClass          int       `json:"per_class"`
+	HoldoutPerClass   int       `json:"holdout_per_class"`
+	HoldoutTrees      int       `json:"holdout_trees"`
+	HoldoutMaxLength  int       `json:"holdout_max_length"`
 	Systems           []string  `json:"systems,omitempty"`
 	ThroughputSizes   []int     `json:"throughput_sizes"`
 	ThroughputRepeats int       `json:"throughput_repeats"`
@@ -68,10 +73,12 @@ type ModelInfo struct {
 	Seed        uint64 `json:"seed"`
 	Schema      string `json:"schema"`
 	// OOBAccuracy is the model's out-of-bag accuracy; CVAccuracy its
-	// grouped cross-validation accuracy when stored (null otherwise).
-	OOBAccuracy    Float `json:"oob_accuracy"`
-	CVAccuracy     Float `json:"cv_accuracy"`
-	MinProbability Float `json:"min_probability"`
+	// held-out accuracy when stored (leave-one-family-out for models from
+	// 'train --reference'; null otherwise) and CVMethod how it was held out.
+	OOBAccuracy    Float  `json:"oob_accuracy"`
+	CVAccuracy     Float  `json:"cv_accuracy"`
+	CVMethod       string `json:"cv_method,omitempty"`
+	MinProbability Float  `json:"min_probability"`
 }
 
 // Elapsed is the wall time of each stage in seconds. It depends on the
@@ -80,6 +87,7 @@ type Elapsed struct {
 	MachineDependent bool  `json:"machine_dependent"`
 	Invariants       Float `json:"invariants"`
 	Classification   Float `json:"classification"`
+	Holdout          Float `json:"holdout"`
 	Pictures         Float `json:"pictures"`
 	Throughput       Float `json:"throughput"`
 	Total            Float `json:"total"`
@@ -107,7 +115,7 @@ func Run(m *classifier.Model, opts Options) (*Result, error) {
 		Caution: Caution,
 		Settings: Settings{
 			Scale: o.Scale, Seed: o.Seed, Seeds: o.Seeds, LengthFactors: o.LengthFactors, Invariants: o.Invariants,
-			Lengths: o.Lengths, PerClass: o.PerClass, Systems: o.Systems,
+			Lengths: o.Lengths, PerClass: o.PerClass, HoldoutPerClass: o.HoldoutPerClass, HoldoutTrees: o.HoldoutTrees, HoldoutMaxLength: o.HoldoutMaxLength, Systems: o.Systems,
 			ThroughputSizes: o.ThroughputSizes, ThroughputRepeats: o.ThroughputRepeats, SlowCall: o.SlowCall,
 			PlaneLength: o.PlaneLength, PlaneOrder: o.PlaneOrder, DegreeLength: o.DegreeLength,
 			FeatureSchema: fmt.Sprintf("v%d %s", features.SchemaVersion, features.SchemaHash()),
@@ -120,7 +128,7 @@ func Run(m *classifier.Model, opts Options) (*Result, error) {
 	for _, sk := range []struct {
 		skip bool
 		name string
-	}{{o.SkipInvariants, "invariants"}, {o.SkipClassification, "classification"}, {o.SkipPictures, "pictures"}, {o.SkipThroughput, "throughput"}} {
+	}{{o.SkipInvariants, "invariants"}, {o.SkipClassification, "classification"}, {o.SkipHoldout, "holdout"}, {o.SkipPictures, "pictures"}, {o.SkipThroughput, "throughput"}} {
 		if sk.skip {
 			res.Settings.Skipped = append(res.Settings.Skipped, sk.name)
 		}
@@ -143,6 +151,14 @@ func Run(m *classifier.Model, opts Options) (*Result, error) {
 		}
 	}
 	res.Elapsed.Classification = Float(time.Since(stage).Seconds())
+
+	stage = time.Now()
+	if !o.SkipHoldout {
+		if res.Holdout, err = runHoldout(o); err != nil {
+			return nil, fmt.Errorf("leave-one-family-out: %w", err)
+		}
+	}
+	res.Elapsed.Holdout = Float(time.Since(stage).Seconds())
 
 	stage = time.Now()
 	if !o.SkipPictures {
@@ -174,7 +190,10 @@ func modelInfo(m *classifier.Model) *ModelInfo {
 		mi.Source = "(in memory)"
 	}
 	if m.CV != nil {
-		mi.CVAccuracy = Float(m.CV.Accuracy)
+		mi.CVAccuracy, mi.CVMethod = Float(m.CV.Accuracy), fmt.Sprintf("%d-fold grouped cross-validation", m.CV.Folds)
+	}
+	if v := m.Validation; v != nil {
+		mi.CVAccuracy, mi.CVMethod = Float(v.Overall.Accuracy), v.Method
 	}
 	return mi
 }

@@ -32,6 +32,9 @@ func tinyOptions(seed uint64) Options {
 		SlowCall:          0.05,
 		PlaneLength:       4096,
 		DegreeLength:      20000,
+		HoldoutPerClass:   24,
+		HoldoutTrees:      5,
+		HoldoutMaxLength:  1500,
 	}
 }
 
@@ -197,6 +200,7 @@ func TestRunDeterministic(t *testing.T) {
 		Lengths: []int{512, 700}, SNRs: []float64{math.Inf(1), 20}, PerClass: 3,
 		Systems:     []string{"henon", "sine", "telegraph"},
 		PlaneLength: 2000, DegreeLength: 5000, SkipThroughput: true,
+		HoldoutPerClass: 9, HoldoutTrees: 3, HoldoutMaxLength: 800,
 	}
 	encode := func(o Options) string {
 		r, err := Run(m, o)

@@ -56,11 +56,21 @@ type Config struct {
 	MinProbability float64 `json:"min_probability"`
 	// RangeMargin widens each feature's training range [min, max] by
 	// RangeMargin·(max − min) on both sides; inputs outside are out of
-	// range and make the prediction Undetermined (default 0.05; a negative
-	// value disables the check).
+	// range. With a novelty index (see NoveltyLimit) that is a note on the
+	// prediction; without one (models of format version 1) it makes the
+	// prediction Undetermined (default 0.05; a negative value disables the
+	// check).
 	RangeMargin float64 `json:"range_margin"`
 	// Schema is the feature catalogue's identity, stored in the model.
 	Schema Schema `json:"schema"`
+	// NoveltyK is the number of nearest training series the novelty
+	// measure averages (default DefaultNoveltyK); see Novelty.
+	NoveltyK int `json:"novelty_k,omitempty"`
+	// NoveltyLimit is the novelty percentile above which a prediction is
+	// Undetermined as unlike anything in training (default
+	// DefaultNoveltyLimit; a negative value builds no novelty index, and
+	// the model falls back to the per-feature range check).
+	NoveltyLimit float64 `json:"novelty_limit,omitempty"`
 }
 
 // resolve returns cfg with defaults filled in for p features, or an error
@@ -108,6 +118,18 @@ func (cfg Config) resolve(p int) (Config, error) {
 	}
 	if math.IsNaN(c.RangeMargin) || math.IsInf(c.RangeMargin, 0) {
 		return c, fmt.Errorf("config: RangeMargin = %g, want finite: %w", c.RangeMargin, ErrConfig)
+	}
+	if c.NoveltyK == 0 {
+		c.NoveltyK = DefaultNoveltyK
+	}
+	if c.NoveltyK < 0 {
+		return c, fmt.Errorf("config: NoveltyK = %d, want > 0: %w", c.NoveltyK, ErrConfig)
+	}
+	if c.NoveltyLimit == 0 {
+		c.NoveltyLimit = DefaultNoveltyLimit
+	}
+	if math.IsNaN(c.NoveltyLimit) || c.NoveltyLimit > 1 {
+		return c, fmt.Errorf("config: NoveltyLimit = %g, want <= 1: %w", c.NoveltyLimit, ErrConfig)
 	}
 	return c, nil
 }

@@ -3,6 +3,7 @@ package classifier
 import (
 	"cmp"
 	"fmt"
+	"runtime"
 	"slices"
 )
 
@@ -24,10 +25,20 @@ type CVSummary struct {
 type CVResult struct {
 	CVSummary
 	// Fold[i] is the fold that held row i out; Predicted[i] is the index
-	// (into Classes) of row i's out-of-fold top class.
-	Fold      []int `json:"-"`
-	Predicted []int `json:"-"`
+	// (into Classes) of row i's out-of-fold top class, Probabilities[i]
+	// its out-of-fold class probabilities (in the order of Classes, 0 for
+	// a class its fold forest never saw) and Undetermined[i] whether the
+	// fold forest's rules called it undetermined.
+	Fold          []int       `json:"-"`
+	Predicted     []int       `json:"-"`
+	Probabilities [][]float64 `json:"-"`
+	Undetermined  []bool      `json:"-"`
 }
+
+// LeaveOneGroupOut, given as the fold count k with a grouped dataset, makes
+// every group its own fold: each group is predicted by a forest trained on
+// all the others (leave-one-family-out validation on the reference set).
+const LeaveOneGroupOut = -1
 
 // stream numbers separating the random streams derived from Config.Seed.
 const (
@@ -66,11 +77,23 @@ func CrossValidateEach(ds Dataset, k int, cfg Config, each func(fold int, m *Mod
 	if err != nil {
 		return CVResult{}, fmt.Errorf("cross-validate: %w", err)
 	}
+	if k == LeaveOneGroupOut {
+		k = slices.Max(fold) + 1
+	}
 	n := len(ds.X)
-	res := CVResult{Fold: fold, Predicted: make([]int, n)}
+	res := CVResult{Fold: fold, Predicted: make([]int, n), Probabilities: make([][]float64, n), Undetermined: make([]bool, n)}
 	res.Folds, res.Grouped, res.Config = k, len(ds.Groups) > 0, resolved
 	res.FoldAccuracy = make([]float64, k)
 	all := newTally(len(classes))
+	// The novelty rule of the fold forests: one index over the whole set,
+	// each held-out row compared only with the rows outside its fold —
+	// exactly the fold's training rows; the reference distances are those
+	// of the whole set, which differ from a fold's by the rows of one fold.
+	// This saves building an index per fold (quadratic in the rows).
+	var nov *noveltyIndex
+	if resolved.NoveltyLimit >= 0 {
+		nov = buildNovelty(ds.X, y, ds.Groups, resolved.NoveltyK, runtime.GOMAXPROCS(0))
+	}
 	for f := 0; f < k; f++ {
 		var trainIdx, testIdx []int
 		for i, fi := range fold {
@@ -82,6 +105,11 @@ func CrossValidateEach(ds Dataset, k int, cfg Config, each func(fold int, m *Mod
 		}
 		fc := cfg
 		fc.Seed = splitmix64(cfg.Seed ^ splitmix64(streamFoldCfg+uint64(f)))
+		if nov != nil {
+			// The fold forest decides by its vote; the shared index above
+			// applies the novelty rule (and replaces the range check).
+			fc.NoveltyLimit, fc.RangeMargin = -1, -1
+		}
 		m, err := Train(ds.Subset(trainIdx), fc)
 		if err != nil {
 			return CVResult{}, fmt.Errorf("cross-validate: fold %d: %w", f, err)
@@ -91,22 +119,35 @@ func CrossValidateEach(ds Dataset, k int, cfg Config, each func(fold int, m *Mod
 		for c, name := range m.Classes {
 			toGlobal[c], _ = slices.BinarySearch(classes, name)
 		}
-		x := make([]float64, len(ds.Features))
+		// A fold forest leaves out features missing in all its training
+		// rows; its held-out rows are projected onto its features.
+		test := ds.Subset(testIdx).project(m.Features)
+		x := make([]float64, len(m.Features))
 		sum := make([]float64, len(m.Classes))
 		good := 0
-		for _, i := range testIdx {
-			m.impute(x, ds.X[i])
+		for ti, i := range testIdx {
+			m.impute(x, test.X[ti])
 			top := m.classify(x, sum)
 			pred := toGlobal[top]
 			res.Predicted[i] = pred
-			all.add(y[i], pred, m.undetermined(x, sum, top))
+			res.Probabilities[i] = make([]float64, len(classes))
+			for c, v := range sum {
+				res.Probabilities[i][toGlobal[c]] = v / float64(len(m.trees))
+			}
+			und := m.undetermined(test.X[ti], x, sum, top)
+			if nov != nil {
+				nv := nov.novelty(ds.X[i], classes, resolved.NoveltyK, resolved.NoveltyLimit, func(r int) bool { return fold[r] == f })
+				und = und || nv.Percentile > nv.Limit
+			}
+			res.Undetermined[i] = und
+			all.add(y[i], pred, und)
 			if pred == y[i] {
 				good++
 			}
 		}
 		res.FoldAccuracy[f] = float64(good) / float64(len(testIdx))
 		if each != nil {
-			if err := each(f, m, ds.Subset(testIdx)); err != nil {
+			if err := each(f, m, test); err != nil {
 				return CVResult{}, fmt.Errorf("cross-validate: fold %d: %w", f, err)
 			}
 		}
@@ -122,6 +163,9 @@ func assignFolds(ds Dataset, y []int, nClass, k int, seed uint64) ([]int, error)
 	rng := streamRand(seed, streamFolds)
 	fold := make([]int, n)
 	if len(ds.Groups) == 0 {
+		if k == LeaveOneGroupOut {
+			return nil, fmt.Errorf("leave-one-group-out needs a grouped dataset: %w", ErrConfig)
+		}
 		if k < 2 || k > n {
 			return nil, fmt.Errorf("%d folds for %d rows, want 2 ≤ k ≤ rows: %w", k, n, ErrConfig)
 		}
@@ -146,6 +190,15 @@ func assignFolds(ds Dataset, y []int, nClass, k int, seed uint64) ([]int, error)
 	names := slices.Clone(ds.Groups)
 	slices.Sort(names)
 	names = slices.Compact(names)
+	if k == LeaveOneGroupOut {
+		if len(names) < 2 {
+			return nil, fmt.Errorf("leave-one-group-out needs at least 2 groups, have %d: %w", len(names), ErrConfig)
+		}
+		for i, g := range ds.Groups {
+			fold[i], _ = slices.BinarySearch(names, g)
+		}
+		return fold, nil
+	}
 	if k < 2 || k > len(names) {
 		return nil, fmt.Errorf("%d folds for %d groups, want 2 ≤ k ≤ groups: %w", k, len(names), ErrConfig)
 	}

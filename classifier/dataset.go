@@ -112,6 +112,75 @@ func (ds Dataset) validate() (classes []string, y []int, err error) {
 	return classes, y, nil
 }
 
+// withoutEmpty returns ds without the features that are missing (NaN) in
+// every row, and their names (nil, and ds itself, when there are none).
+// No row can teach a forest anything about such a feature.
+func (ds Dataset) withoutEmpty() (Dataset, []string) {
+	p := len(ds.Features)
+	empty := make([]bool, p)
+	var dropped []string
+	for j := 0; j < p; j++ {
+		empty[j] = true
+		for _, row := range ds.X {
+			if !math.IsNaN(row[j]) {
+				empty[j] = false
+				break
+			}
+		}
+		if empty[j] {
+			dropped = append(dropped, ds.Features[j])
+		}
+	}
+	if len(dropped) == 0 || len(dropped) == p {
+		return ds, nil
+	}
+	out := ds
+	out.Features = make([]string, 0, p-len(dropped))
+	for j, name := range ds.Features {
+		if !empty[j] {
+			out.Features = append(out.Features, name)
+		}
+	}
+	out.X = make([][]float64, len(ds.X))
+	for i, row := range ds.X {
+		r := make([]float64, 0, len(out.Features))
+		for j, v := range row {
+			if !empty[j] {
+				r = append(r, v)
+			}
+		}
+		out.X[i] = r
+	}
+	return out, dropped
+}
+
+// project returns the rows of ds reordered into the feature order names
+// (a subset of ds.Features, as a model trained on ds without its empty
+// features has), sharing nothing with ds.
+func (ds Dataset) project(names []string) Dataset {
+	if slices.Equal(names, ds.Features) {
+		return ds
+	}
+	pos := make([]int, len(names))
+	for k, n := range names {
+		pos[k] = slices.Index(ds.Features, n)
+	}
+	out := ds
+	out.Features = slices.Clone(names)
+	out.X = make([][]float64, len(ds.X))
+	for i, row := range ds.X {
+		r := make([]float64, len(names))
+		for k, j := range pos {
+			r[k] = math.NaN()
+			if j >= 0 {
+				r[k] = row[j]
+			}
+		}
+		out.X[i] = r
+	}
+	return out
+}
+
 // medians returns the median of the non-missing values of every feature:
 // the middle order statistic, or the mean of the two middle ones for an even
 // count. A feature with no observed value is an error.

@@ -131,15 +131,16 @@ func (m *Model) Evaluate(ds Dataset) (Evaluation, error) {
 	for i, row := range ds.X {
 		m.impute(x, row)
 		top := m.classify(x, sum)
-		t.add(y[i], top, m.undetermined(x, sum, top))
+		t.add(y[i], top, m.undetermined(row, x, sum, top))
 	}
 	return t.evaluation(m.Classes), nil
 }
 
-// undetermined applies Predict's Undetermined rules to the imputed vector
-// x whose per-class sums of leaf frequencies over the trees are sum (as
-// classify leaves them) and whose top class is top.
-func (m *Model) undetermined(x, sum []float64, top int) bool {
+// undetermined applies Predict's Undetermined rules to the vector raw
+// (NaN for missing values), imputed as x, whose per-class sums of leaf
+// frequencies over the trees are sum (as classify leaves them) and whose
+// top class is top.
+func (m *Model) undetermined(raw, x, sum []float64, top int) bool {
 	if m.Config.MinProbability >= 0 && sum[top]/float64(len(m.trees)) < m.Config.MinProbability {
 		return true
 	}
@@ -147,6 +148,10 @@ func (m *Model) undetermined(x, sum []float64, top int) bool {
 		if c != top && s == sum[top] {
 			return true
 		}
+	}
+	if m.novelty != nil {
+		nv := m.novelty.novelty(raw, m.Classes, m.Config.NoveltyK, m.Config.NoveltyLimit, nil)
+		return nv.Percentile > nv.Limit
 	}
 	if m.Config.RangeMargin >= 0 {
 		for j, v := range x {

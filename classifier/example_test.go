@@ -34,8 +34,11 @@ func Example() {
 	}
 	fmt.Printf("%s p=%.2f driven by %s\n", pr.Label(), pr.Probabilities[pr.Index], pr.Drivers(1)[0].Feature)
 
-	out, _ := m.Predict([]float64{9, 0.1}) // far beyond the training range of gap
-	fmt.Println(out.Label(), out.OutOfRange)
+	// Far beyond the training range of gap, but otherwise a clear case: the
+	// verdict stands and the feature is noted (the novelty measure, not one
+	// feature, decides what the model cannot place).
+	out, _ := m.Predict([]float64{9, 0.1})
+	fmt.Println(out.Label(), out.OutOfRange, out.Novelty.Percentile < out.Novelty.Limit)
 
 	var file bytes.Buffer
 	if err := m.Write(&file); err != nil {
@@ -51,7 +54,7 @@ func Example() {
 	fmt.Println(again.Probabilities[again.Index] == pr.Probabilities[pr.Index])
 	// Output:
 	// chaotic p=1.00 driven by gap
-	// undetermined [gap]
+	// chaotic [gap] true
 	// true
 }
 

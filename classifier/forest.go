@@ -36,10 +36,14 @@ type Model struct {
 	OOB OOBInfo `json:"oob"`
 	// CV holds cross-validation figures, if the caller stored them.
 	CV *CVSummary `json:"cv,omitempty"`
+	// Validation holds a held-out evaluation broken down by stratum and
+	// calibration (e.g. leave-one-family-out), if the caller stored one.
+	Validation *Validation `json:"validation,omitempty"`
 	// Source is the path the model was loaded from (not stored).
 	Source string `json:"-"`
 
-	trees []tree
+	trees   []tree
+	novelty *noveltyIndex // nil: no novelty measure (format version 1)
 }
 
 // TrainingInfo describes a model's training set.
@@ -52,6 +56,9 @@ type TrainingInfo struct {
 	Groups int `json:"groups"`
 	// Imputed is the number of missing (NaN) values replaced by medians.
 	Imputed int `json:"imputed"`
+	// Dropped names the features missing in every training row: the model
+	// leaves them out (Features does not list them) and never asks for them.
+	Dropped []string `json:"dropped,omitempty"`
 }
 
 // OOBInfo is the out-of-bag estimate: every training row is predicted by
@@ -155,6 +162,7 @@ type trainer struct {
 // Workers or GOMAXPROCS. ds must hold at least two rows, two classes and no
 // ±Inf; NaN values are imputed with the feature's training median.
 func Train(ds Dataset, cfg Config) (*Model, error) {
+	ds, dropped := ds.withoutEmpty()
 	classes, y, err := ds.validate()
 	if err != nil {
 		return nil, fmt.Errorf("train: %w", err)
@@ -178,7 +186,7 @@ func Train(ds Dataset, cfg Config) (*Model, error) {
 		Max:      make([]float64, p),
 	}
 	m.Config.Workers = 0
-	m.Training = TrainingInfo{Description: ds.Description, Rows: n, ClassCounts: make([]int, k)}
+	m.Training = TrainingInfo{Description: ds.Description, Rows: n, ClassCounts: make([]int, k), Dropped: dropped}
 	for _, yi := range y {
 		m.Training.ClassCounts[yi]++
 	}
@@ -243,6 +251,9 @@ func Train(ds Dataset, cfg Config) (*Model, error) {
 	}
 	m.trees = forest
 	m.OOB = outOfBag(forest, inbag, tr.cols, y, k, c.Workers)
+	if c.NoveltyLimit >= 0 {
+		m.novelty = buildNovelty(ds.X, y, ds.Groups, c.NoveltyK, c.Workers)
+	}
 	return m, nil
 }
 

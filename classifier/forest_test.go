@@ -204,21 +204,52 @@ func TestMissingValues(t *testing.T) {
 	if !slices.Equal(got.Probabilities, want.Probabilities) || !slices.Equal(got.Values, want.Values) {
 		t.Fatalf("NaN prediction %v differs from median-filled %v", got.Probabilities, want.Probabilities)
 	}
+	// A feature missing in every row teaches nothing: the model leaves it
+	// out, records it, and predicts from the others without asking for it.
 	all := noisy(10, 4, 2, 5)
 	for i := range all.X {
 		all.X[i][3] = math.NaN()
 	}
-	if _, err := Train(all, Config{}); !errors.Is(err, ErrDataset) || !strings.Contains(err.Error(), "x03") {
-		t.Fatalf("all-missing column: err %v", err)
+	dm, err := Train(all, Config{Trees: 5, Seed: 1})
+	if err != nil {
+		t.Fatalf("all-missing column: %v", err)
+	}
+	if slices.Contains(dm.Features, "x03") || !slices.Equal(dm.Training.Dropped, []string{"x03"}) || len(dm.Features) != len(all.Features)-1 {
+		t.Fatalf("features %v, dropped %v", dm.Features, dm.Training.Dropped)
+	}
+	xs, missing, err := dm.Align(all.Features, all.X[0])
+	if err != nil || len(missing) != 0 {
+		t.Fatalf("align: %v, missing %v", err, missing)
+	}
+	if _, err := dm.Predict(xs); err != nil {
+		t.Fatal(err)
+	}
+	var buf bytes.Buffer
+	if err := dm.Write(&buf); err != nil {
+		t.Fatal(err)
+	}
+	back, err := Read(&buf)
+	if err != nil || !slices.Equal(back.Training.Dropped, []string{"x03"}) {
+		t.Fatalf("round trip: %v, dropped %v", err, back.Training.Dropped)
+	}
+	// Every feature missing is still an error.
+	for i := range all.X {
+		for j := range all.X[i] {
+			all.X[i][j] = math.NaN()
+		}
+	}
+	if _, err := Train(all, Config{}); !errors.Is(err, ErrDataset) {
+		t.Fatalf("all features missing: err %v", err)
 	}
 }
 
-// TestOutOfRange: a value beyond the training range widened by the margin
-// makes the prediction Undetermined and names the feature; a value inside
-// the margin does not; a negative margin disables the check.
+// TestOutOfRange: without a novelty index (as in models of format version
+// 1), a value beyond the training range widened by the margin makes the
+// prediction Undetermined and names the feature; a value inside the margin
+// does not; a negative margin disables the check.
 func TestOutOfRange(t *testing.T) {
 	ds := loadIris(t)
-	m, err := Train(ds, Config{Trees: 30, Seed: 1})
+	m, err := Train(ds, Config{Trees: 30, Seed: 1, NoveltyLimit: -1})
 	if err != nil {
 		t.Fatal(err)
 	}

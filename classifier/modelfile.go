@@ -31,14 +31,22 @@ import (
 //	           left child is the next node, the right child follows the
 //	           left subtree, and a split's class counts are the sums of its
 //	           children's
+//	novelty    (version 2, present when the header's config has a
+//	           non-negative novelty_limit) uvarint rows n and features p;
+//	           p·65 feature quantile knots as 8-byte IEEE-754 bits; n·p
+//	           percentile codes, one byte each (255 = missing); uvarint
+//	           group count, then each group name as uvarint length and
+//	           bytes; per row a uvarint group index and a class byte; n
+//	           sorted reference distances as 4-byte IEEE-754 bits
 //	checksum   32 bytes SHA-256 of everything before it
 //
 // The same model always gives the same bytes: JSON fields come from
 // structs and slices (no maps), floats are written in their shortest
 // exact form, and nothing depends on time or the machine.
 const (
-	// FormatVersion is the model file version this build writes and reads.
-	FormatVersion = 1
+	// FormatVersion is the model file version this build writes; it reads
+	// this and every earlier version (version 1 has no novelty section).
+	FormatVersion = 2
 	magic         = "TSFOREST"
 	checksumLen   = sha256.Size
 )
@@ -78,6 +86,9 @@ func (m *Model) Write(w io.Writer) error {
 			b = binary.LittleEndian.AppendUint64(b, math.Float64bits(nd.threshold))
 		}
 	}
+	if m.novelty != nil {
+		b = m.novelty.appendTo(b)
+	}
 	sum := sha256.Sum256(b)
 	b = append(b, sum[:]...)
 	if _, err := w.Write(b); err != nil {
@@ -100,9 +111,27 @@ func (m *Model) checkFinite() error {
 	for _, e := range []error{
 		bad("medians", m.Medians...), bad("min", m.Min...), bad("max", m.Max...),
 		bad("config", m.Config.FeatureFraction, m.Config.MinProbability, m.Config.RangeMargin),
-		bad("oob", m.OOB.Accuracy),
+		bad("oob", m.OOB.Accuracy), bad("novelty config", m.Config.NoveltyLimit),
 	} {
 		if e != nil {
+			return e
+		}
+	}
+	if v := m.Validation; v != nil {
+		vals := []float64{v.Overall.Accuracy, v.Overall.ChaosNoise, v.Overall.DeterminedAccuracy, v.Calibration.Brier, v.Calibration.ECE}
+		for _, st := range v.Strata {
+			for _, sc := range st.Scores {
+				vals = append(vals, sc.Accuracy, sc.ChaosNoise, sc.DeterminedAccuracy)
+			}
+		}
+		for _, b := range v.Calibration.Bins {
+			vals = append(vals, b.Lo, b.Hi, b.Confidence, b.Accuracy)
+		}
+		vals = append(vals, v.Matrix.Accuracy, v.Matrix.DeterminedAccuracy)
+		vals = append(vals, v.Matrix.Precision...)
+		vals = append(vals, v.Matrix.Recall...)
+		vals = append(vals, v.Matrix.F1...)
+		if e := bad("validation", vals...); e != nil {
 			return e
 		}
 	}
@@ -224,6 +253,13 @@ func parse(data []byte) (*Model, error) {
 			}
 			return nil, corrupt("tree %d: %v", t, err)
 		}
+	}
+	if version >= 2 && m.Config.NoveltyLimit >= 0 {
+		ix, err := rd.novelty(len(m.Features), len(m.Classes))
+		if err != nil {
+			return nil, fmt.Errorf("novelty index: %w", err)
+		}
+		m.novelty = ix
 	}
 	if rd.off != len(body) {
 		return nil, corrupt("%d unexpected bytes after the trees", len(body)-rd.off)

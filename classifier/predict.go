@@ -23,7 +23,16 @@ type Prediction struct {
 	Undetermined bool
 	Reasons      []string
 	// OutOfRange names the features outside the widened training range.
+	// With a novelty index they are listed in Notes, not in Reasons: one
+	// unusual feature does not make an otherwise clear vector undetermined.
 	OutOfRange []string
+	// Novelty is the vector's distance from the training set (nil for a
+	// model without a novelty index); a percentile above its Limit makes
+	// the prediction Undetermined.
+	Novelty *Novelty
+	// Notes are remarks that do not change the verdict (features outside
+	// the training range when the novelty measure decides).
+	Notes []string
 	// Imputed names the features that were missing (NaN) and replaced by
 	// their training median.
 	Imputed []string
@@ -151,11 +160,24 @@ func (m *Model) Predict(x []float64) (Prediction, error) {
 		for j, v := range xv {
 			lo, hi, ok := m.allowedRange(j)
 			if ok && !(v >= lo && v <= hi) {
-				pr.Undetermined = true
 				pr.OutOfRange = append(pr.OutOfRange, m.Features[j])
-				pr.Reasons = append(pr.Reasons, fmt.Sprintf("%s = %s is outside the training range [%s, %s]",
-					m.Features[j], fmtNum(v), fmtNum(m.Min[j]), fmtNum(m.Max[j])))
+				msg := fmt.Sprintf("%s = %s is outside the training range [%s, %s]",
+					m.Features[j], fmtNum(v), fmtNum(m.Min[j]), fmtNum(m.Max[j]))
+				if m.novelty != nil {
+					pr.Notes = append(pr.Notes, msg)
+				} else {
+					pr.Undetermined = true
+					pr.Reasons = append(pr.Reasons, msg)
+				}
 			}
+		}
+	}
+	if m.novelty != nil {
+		nv := m.novelty.novelty(x, m.Classes, m.Config.NoveltyK, m.Config.NoveltyLimit, nil)
+		pr.Novelty = &nv
+		if nv.Percentile > nv.Limit {
+			pr.Undetermined = true
+			pr.Reasons = append(pr.Reasons, fmt.Sprintf("unlike the training set: %s, above the limit %.3g", nv, nv.Limit))
 		}
 	}
 	return pr, nil

@@ -36,7 +36,8 @@ const (
 )
 
 // QualityWarnings returns one-line warnings about how x was recorded:
-// short, clipped, quantised, drifting (non-stationary) and, when the sample
+// short, clipped, quantised, few cycles of its slowest motion, drifting
+// (non-stationary) and, when the sample
 // interval in seconds is known (interval > 0), strong periodic interference
 // at the mains frequencies 50 or 60 Hz or their harmonics.
 func QualityWarnings(x []float64, interval float64) []string {
@@ -72,7 +73,10 @@ func QualityWarnings(x []float64, interval float64) []string {
 		}
 	}
 	if levels < quantLevels && levels < n/4 {
-		out = append(out, fmt.Sprintf("quantised: only %d distinct levels; ties weaken the ordinal and visibility-graph features", levels))
+		out = append(out, fmt.Sprintf("quantised: only %d distinct levels; on a uniform converter grid the features spread each sample within its step (a seeded dither) and read the grid as measurement noise", levels))
+	}
+	if c := MeanCrossings(x); c < MinCrossings {
+		out = append(out, fmt.Sprintf("few cycles: the trace crosses its mean only %d times; a verdict needs about ten oscillations of the slowest motion in the record (the reference set holds no deterministic series with fewer than %d crossings)", c, MinCrossings))
 	}
 	if w := driftWarning(x); w != "" {
 		out = append(out, w)

@@ -1,6 +1,7 @@
 package classifier
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"slices"
@@ -50,6 +51,12 @@ type Verdict struct {
 	Probabilities []float64
 	// Reasons says why the verdict is undetermined.
 	Reasons []string
+	// Novelty is the multivariate distance of the trace's features from
+	// the training set (see Novelty; the window with the median percentile
+	// for long traces); nil for a model without a novelty index. It, not
+	// any single feature, decides whether the trace lies outside what the
+	// model can place.
+	Novelty *Novelty
 	// Drivers are the features that moved the top class's probability most
 	// (Saabas contributions averaged over windows), largest first.
 	Drivers []Driver
@@ -146,7 +153,20 @@ func Screen(m *Model, x []float64, opts ScreenOptions) (Verdict, error) {
 			out = append(out, f)
 		}
 	}
-	if len(out) > 0 {
+	if m.novelty != nil {
+		var novs []*Novelty
+		for _, p := range preds {
+			novs = append(novs, p.Novelty)
+		}
+		slices.SortStableFunc(novs, func(a, b *Novelty) int { return cmp.Compare(a.Percentile, b.Percentile) })
+		v.Novelty = novs[(len(novs)-1)/2]
+		if v.Novelty.Percentile > v.Novelty.Limit {
+			v.Reasons = append(v.Reasons, fmt.Sprintf("unlike the training set: %s, above the limit %.3g", v.Novelty, v.Novelty.Limit))
+		}
+		if len(out) > 0 {
+			v.Warnings = append(v.Warnings, fmt.Sprintf("outside the training range (noted; the novelty measure decides): %s", joinNames(out)))
+		}
+	} else if len(out) > 0 {
 		v.Reasons = append(v.Reasons, fmt.Sprintf("outside the training range: %s", joinNames(out)))
 	}
 	if len(imputed) > 0 {

@@ -9,8 +9,11 @@ import (
 
 // SchemaVersion numbers the layout of the feature vector. It changes when the
 // meaning of a feature changes without its name changing; a changed name
-// list changes SchemaHash on its own.
-const SchemaVersion = 1
+// list changes SchemaHash on its own. Version 2: quantised traces are
+// dithered within their converter step before measuring (DetectGrid), the
+// Lyapunov estimator chooses its scaling region anew, and spectral_lines
+// joined the catalogue.
+const SchemaVersion = 2
 
 // Family groups features by the kind of estimator behind them.
 type Family string

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"sync"
 )
 
@@ -24,7 +25,8 @@ var (
 // Options configures Extract. The zero value selects the defaults.
 type Options struct {
 	// Seed drives every randomised estimator (sampled path lengths and
-	// graph dimension, Louvain order, 0–1 test frequencies). The default 0
+	// graph dimension, Louvain order, 0–1 test frequencies) and the dither
+	// of a quantised series (see Extract). The default 0
 	// is a valid seed: the same series and seed give bit-identical vectors.
 	Seed uint64
 	// Sequential computes the families one after another instead of in
@@ -44,6 +46,9 @@ type Vector struct {
 	Reasons []string  `json:"reasons"`
 	// N is the number of samples measured.
 	N int `json:"n"`
+	// Grid reports whether the series lay on a recorder's grid and was
+	// dithered before the estimators ran (see DetectGrid).
+	Grid Grid `json:"grid"`
 }
 
 // Get returns the value of a named feature and whether it is present.
@@ -140,6 +145,21 @@ func (s *sink) missErr(err error, names ...string) {
 // Extract computes the feature vector of x. x is not modified. The series is
 // standardised to zero mean and unit variance first, so the vector does not
 // depend on the units of the trace.
+//
+// A series recorded on a coarse uniform grid (an ADC's codes, integer
+// counts; DetectGrid states the rule) is then dithered: each sample is
+// spread over its grid cell by a draw seeded with opts.Seed, uniformly for
+// series whose consecutive samples are independent at the scale of the grid
+// and in order along runs of equal samples for smooth series that creep
+// through it (see dither). Without this, equal values would be read as
+// structure by every estimator that compares samples (ordinal patterns,
+// visibility graphs, template matches, nearest neighbours). Genuinely
+// discrete series — fewer than five levels (two-level telegraph noise,
+// square waves) or exactly periodic — are left as recorded, and so are
+// unquantised traces, for which the test costs one pass. Vector.Grid reports
+// what was found and done. The dither is a function of the standardised
+// series and the seed only, so the vector stays bit-identical under a change
+// of units.
 func Extract(x []float64, opts Options) (Vector, error) {
 	z, err := Standardise(x)
 	if err != nil {
@@ -154,6 +174,10 @@ func Extract(x []float64, opts Options) (Vector, error) {
 			}
 			only[n] = true
 		}
+	}
+	grid := detectGrid(z)
+	if grid.Dithered {
+		z = dither(z, grid, rand.New(rand.NewPCG(opts.Seed, ditherStream)))
 	}
 	sinks := make([]sink, len(families))
 	run := func(i int) {
@@ -182,8 +206,7 @@ func Extract(x []float64, opts Options) (Vector, error) {
 		}
 		wg.Wait()
 	}
-	var v Vector
-	v.N = len(x)
+	v := Vector{N: len(x), Grid: grid}
 	for i, f := range families {
 		for _, e := range f.entries {
 			val, ok := sinks[i].values[e.Name]

@@ -10,7 +10,7 @@ import (
 var graphFamily = family{
 	name: FamilyGraph,
 	entries: []Entry{
-		{"hvg_mean_degree", FamilyGraph, "mean degree of the horizontal visibility graph (→ 4 for any i.i.d. series; 4(1 − 1/2T) for period T)", "Luque et al., Phys. Rev. E 80 (2009) 046103"},
+		{"hvg_mean_degree", FamilyGraph, "mean degree of the horizontal visibility graph (→ 4 for any i.i.d. series without ties — Extract dithers quantised traces first; 4(1 − 1/2T) for period T)", "Luque et al., Phys. Rev. E 80 (2009) 046103"},
 		{"hvg_lambda", FamilyGraph, "exponential tail rate λ of the HVG degree distribution P(k) ~ e^{−λk} (ln 3/2 for i.i.d.; below for chaos, above for correlated noise)", "Luque et al. (2009); Lacasa & Toral, Phys. Rev. E 82 (2010) 036120"},
 		{"hvg_clustering_mean", FamilyGraph, "mean local clustering coefficient of the HVG (≈ 0.648 for i.i.d.)", "Luque et al. (2009)"},
 		{"hvg_degree_entropy", FamilyGraph, "Shannon entropy of the HVG degree distribution, nats", "Shannon (1948); Luque et al. (2009)"},

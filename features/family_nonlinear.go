@@ -11,10 +11,10 @@ import (
 var nonlinearFamily = family{
 	name: FamilyNonlinear,
 	entries: []Entry{
-		{"lyap_max", FamilyNonlinear, "largest Lyapunov exponent per sample step from the divergence of nearest neighbours; missing when the divergence curve has no credible linear region (as for noise)", "Rosenstein, Collins & De Luca, Physica D 65 (1993) 117"},
+		{"lyap_max", FamilyNonlinear, "largest Lyapunov exponent per sample step from the divergence of nearest neighbours within the median neighbour distance; missing when the divergence curve has no credible exponential region (as for noise and random walks)", "Rosenstein, Collins & De Luca, Physica D 65 (1993) 117; Kantz, Phys. Lett. A 185 (1994) 77"},
 		{"lyap_delay", FamilyNonlinear, "largest Lyapunov exponent per embedding delay (λ·τ): comparable across sampling rates", "Rosenstein et al. (1993); Fraser & Swinney, Phys. Rev. A 33 (1986) 1134"},
 		{"lyap_credible", FamilyNonlinear, "1 when the divergence curve shows a credible exponential-growth region, else 0", "Rosenstein et al. (1993); criterion documented in features/nonlinear"},
-		{"lyap_jump", FamilyNonlinear, "first-step jump of the divergence curve as a fraction of its total rise (≈1 for noise, small for chaos)", "Rosenstein et al. (1993); diagnostic, common practice"},
+		{"lyap_jump", FamilyNonlinear, "jump of the divergence curve over its first point (max(1, τ/4) samples) as a fraction of its total rise (large for noise, small for clean chaos)", "Rosenstein et al. (1993); diagnostic, common practice"},
 		{"corr_dim", FamilyNonlinear, "correlation dimension D2 over the flattest decade of the correlation sum; missing without a scaling region", "Grassberger & Procaccia, Physica D 9 (1983) 189"},
 		{"zero_one_k", FamilyNonlinear, "0–1 test for chaos K (median over random c; ≈1 chaotic or noisy, ≈0 regular), series decimated by the embedding delay", "Gottwald & Melbourne, Proc. R. Soc. A 460 (2004) 603; SIAM J. Appl. Dyn. Syst. 8 (2009) 129"},
 		{"pred_rho1", FamilyNonlinear, "nearest-neighbour (simplex) forecast correlation one sample ahead", "Sugihara & May, Nature 344 (1990) 734"},
@@ -26,7 +26,7 @@ var nonlinearFamily = family{
 		{"asym_abs", FamilyNonlinear, "|time-reversal asymmetry| of the increments ⟨Δx³⟩/⟨Δx²⟩^{3/2} (0 for linear Gaussian noise)", "Theiler et al., Physica D 58 (1992) 77"},
 		{"asym_tau", FamilyNonlinear, "|time-reversal asymmetry| of the increments over one embedding delay τ, x_{t+τ} − x_t: measurement noise dilutes it far less than at one sample", "Theiler et al., Physica D 58 (1992) 77 (statistic at lag τ)"},
 		{"irrev4_tau", FamilyNonlinear, "|⟨z_t z_{t+τ}³ − z_t³ z_{t+τ}⟩| / ⟨z_t² z_{t+τ}²⟩ at the embedding delay: time-reversal asymmetry that survives the odd symmetry x → −x (Lorenz, Chua), where the increment skewness vanishes", "fourth-order moment odd under time reversal (common practice; our normalisation)"},
-		{"sample_entropy", FamilyNonlinear, "sample entropy, m = 2, r = 0.2·sd (2.185 for Gaussian white noise)", "Richman & Moorman, Am. J. Physiol. 278 (2000) H2039"},
+		{"sample_entropy", FamilyNonlinear, "sample entropy, m = 2, r = 0.2·sd (2.185 for Gaussian white noise; 2.18–2.20 for white noise recorded with 8–256 levels, after Extract's dither)", "Richman & Moorman, Am. J. Physiol. 278 (2000) H2039"},
 		{"embed_dim", FamilyNonlinear, "embedding dimension from the saturation of Cao's E1", "Cao, Physica D 110 (1997) 43"},
 		{"cao_e2_dev", FamilyNonlinear, "largest |E2(d) − 1| of Cao's method (≈0 for independent noise, clearly positive for determinism)", "Cao, Physica D 110 (1997) 43"},
 	},

@@ -18,6 +18,7 @@ var scalingFamily = family{
 		{"spectral_r2", FamilyScaling, "r² of the log–log spectral fit: low for line spectra and humps", "fit quality, common practice"},
 		{"spectral_flatness", FamilyScaling, "Wiener entropy of the Welch spectrum: geometric over arithmetic mean power (1 flat, → 0 for lines)", "Johnston, IEEE J. Sel. Areas Commun. 6 (1988) 314 (memory)"},
 		{"spectral_peak", FamilyScaling, "fraction of the spectral power in the strongest three bins (near 1 for periodic signals)", "spectral concentration, common practice"},
+		{"spectral_lines", FamilyScaling, "fraction of the variance in narrow spectral lines (bins ≥ 20× a local power-law floor, Welch spectrum of half-length segments): → 1 for periodic and quasi-periodic motion, ≈ 0 for noise of any colour and for mixing chaos", "point versus continuous spectrum, Bergé, Pomeau & Vidal, Order within Chaos (1984) (memory); estimator documented in features/scaling"},
 		{"acf_decay", FamilyScaling, "autocorrelation 1/e decay time in samples, log10 (lower bound when the ACF never decays)", "Box & Jenkins, Time Series Analysis (1970); common practice"},
 	},
 	compute: computeScaling,
@@ -68,6 +69,14 @@ func computeScaling(z []float64, _ Options, s *sink) {
 		s.set("spectral_peak", peak)
 		return nil
 	}, "spectral_flatness", "spectral_peak")
+	s.measure(func() error {
+		r, err := scaling.Lines(z, scaling.LinesOptions{})
+		if err != nil {
+			return err
+		}
+		s.set("spectral_lines", r.Fraction)
+		return nil
+	}, "spectral_lines")
 	s.measure(func() error {
 		r, err := scaling.DecayTime(z, scaling.DecayOptions{})
 		switch {

@@ -57,3 +57,52 @@ func BenchmarkLorenzLabel(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkClassFrom: one per-series label (ClassFrom) per operation at
+// the defaults, for every system with a per-series rule; run with
+// go test -bench ClassFrom -run ^$ ./generators. cpu-ms/op is the CPU time
+// of the benchmark's thread, which a loaded machine does not inflate.
+func BenchmarkClassFrom(b *testing.B) {
+	for _, s := range All() {
+		if s.initial == nil {
+			continue
+		}
+		b.Run(s.Name, func(b *testing.B) {
+			rng := newRand(1)
+			benchCPU(b, func() error {
+				_, err := s.ClassFrom(nil, rng)
+				return err
+			})
+		})
+	}
+}
+
+// BenchmarkGenerate10k: 10^4 samples per operation at the defaults, for
+// every system; run with go test -bench Generate10k -run ^$ ./generators.
+func BenchmarkGenerate10k(b *testing.B) {
+	for _, s := range All() {
+		b.Run(s.Name, func(b *testing.B) {
+			rng := newRand(1)
+			benchCPU(b, func() error {
+				_, err := s.Generate(10000, nil, rng)
+				return err
+			})
+		})
+	}
+}
+
+// benchCPU runs op b.N times on one locked thread and reports its CPU time
+// per operation in milliseconds beside the wall time.
+func benchCPU(b *testing.B, op func() error) {
+	lockThread()
+	defer unlockThread()
+	c0 := threadCPU()
+	var ops int
+	for b.Loop() {
+		if err := op(); err != nil {
+			b.Fatal(err)
+		}
+		ops++
+	}
+	b.ReportMetric(float64(threadCPU()-c0)/1e6/float64(ops), "cpu-ms/op")
+}

@@ -23,6 +23,9 @@ func (m Cubic) next(dst, v []float64) { dst[0] = m.R*v[0] - v[0]*v[0]*v[0] }
 
 func (m Cubic) jacobian(j, v []float64) { j[0] = m.R - 3*v[0]*v[0] }
 
+// start draws the initial state of Generate: x0 uniform in (0.1, 1.9).
+func (m Cubic) start(rng *rand.Rand) []float64 { return []float64{0.1 + 1.8*rng.Float64()} }
+
 // Generate returns n iterates after the transient from a random x0 in
 // (0.1, 1.9).
 func (m Cubic) Generate(n int, rng *rand.Rand) ([]float64, error) {
@@ -34,12 +37,12 @@ func (m Cubic) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	}
 	// The bound 2 is the edge of the invariant interval at r = 3; below
 	// r = 3 the attractor lies strictly inside it.
-	x := 0.1 + 1.8*rng.Float64()
+	x := m.start(rng)[0]
 	out := make([]float64, n)
 	for i := -mapTransient; i < n; i++ {
 		x = m.R*x - x*x*x
 		if math.Abs(x) >= 2 || (m.R > 1 && x == 0) {
-			x = 0.1 + 1.8*rng.Float64()
+			x = m.start(rng)[0]
 		}
 		if i >= 0 {
 			out[i] = x

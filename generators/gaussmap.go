@@ -20,10 +20,13 @@ func (m GaussMap) jacobian(j, v []float64) {
 	j[0] = -2 * m.Alpha * v[0] * math.Exp(-m.Alpha*v[0]*v[0])
 }
 
+// start draws the initial state of Generate: x0 uniform in (−0.5, 0.5).
+func (m GaussMap) start(rng *rand.Rand) []float64 { return []float64{rng.Float64() - 0.5} }
+
 // Generate returns n iterates after the transient from a random x0 in
 // (−0.5, 0.5).
 func (m GaussMap) Generate(n int, rng *rand.Rand) ([]float64, error) {
-	return iterateMap("gauss-map", m, []float64{rng.Float64() - 0.5}, n, 0)
+	return iterateMap("gauss-map", m, m.start(rng), n, 0)
 }
 
 func init() {

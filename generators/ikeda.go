@@ -7,10 +7,12 @@ import (
 
 // Ikeda is the Ikeda map of a ring laser cavity, z' = 1 + u·z·e^{iθ} with
 // θ = 0.4 − 6/(1 + |z|²), written for z = x + iy and observed through the
-// real part x (Ikeda, Opt. Commun. 30 (1979) 257). Its Jacobian determinant
+// real part x (Obs = 0) or the imaginary part y (Obs = 1) (Ikeda, Opt.
+// Commun. 30 (1979) 257). Its Jacobian determinant
 // is u², so λ1 + λ2 = 2 ln u (analytic).
 type Ikeda struct {
-	U float64 // dissipation, 0 < U < 1
+	U   float64 // dissipation, 0 < U < 1
+	Obs int     // observed coordinate: 0 = Re z, 1 = Im z
 }
 
 func (m Ikeda) dim() int { return 2 }
@@ -38,11 +40,15 @@ func (m Ikeda) jacobian(j, v []float64) {
 	j[3] = m.U * (c + b*ty)
 }
 
-// Generate returns n values of the real part after the transient, started
-// at a random point of (−0.5, 0.5)².
+// start draws the initial state of Generate: uniform in (−0.5, 0.5)².
+func (m Ikeda) start(rng *rand.Rand) []float64 {
+	return []float64{rng.Float64() - 0.5, rng.Float64() - 0.5}
+}
+
+// Generate returns n values of the observed part after the transient,
+// started at a random point of (−0.5, 0.5)².
 func (m Ikeda) Generate(n int, rng *rand.Rand) ([]float64, error) {
-	v := []float64{rng.Float64() - 0.5, rng.Float64() - 0.5}
-	return iterateMap("ikeda", m, v, n, 0)
+	return iterateMap("ikeda", m, m.start(rng), n, m.Obs)
 }
 
 func init() {
@@ -52,10 +58,11 @@ func init() {
 		Doc:   "Chaotic at u = 0.9; above it orbits from the random start can settle on a stable fixed point, so u stops at 0.9. Label: chaotic when λ1 from the tangent map (orbit from (0, 0), 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
 		Params: []Param{
 			{Name: "u", Default: 0.9, Min: 0.5, Max: 0.9, Doc: "dissipation parameter"},
+			obsParam("Re z", "Im z"),
 		},
 		Invariants: []Invariant{
 			{Name: "lyap_sum", Value: 2 * math.Log(0.9), Unit: "per iteration", Source: "analytic: ln|det J| = 2 ln u"},
 		},
 		DefaultClass: Chaotic,
-	}, func(p map[string]float64) Ikeda { return Ikeda{U: p["u"]} }, 0, 0)
+	}, func(p map[string]float64) Ikeda { return Ikeda{U: p["u"], Obs: int(p["obs"])} }, 0, 0)
 }

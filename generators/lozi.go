@@ -7,10 +7,11 @@ import (
 
 // Lozi is the Lozi map x' = 1 − a·|x| + y, y' = b·x, a piecewise-linear
 // relative of the Hénon map (Lozi, J. Phys. Colloques 39 (1978) C5-9),
-// observed through x. Its Jacobian determinant is −b, so λ1 + λ2 = ln|b|
+// observed through x (Obs = 0) or y (Obs = 1). Its Jacobian determinant is −b, so λ1 + λ2 = ln|b|
 // (analytic).
 type Lozi struct {
 	A, B float64
+	Obs  int // observed coordinate: 0 = x, 1 = y
 }
 
 func (m Lozi) dim() int { return 2 }
@@ -29,11 +30,15 @@ func (m Lozi) jacobian(j, v []float64) {
 	j[2], j[3] = m.B, 0
 }
 
-// Generate returns n values of x after the transient, started at a random
-// point of (−0.1, 0.1)².
+// start draws the initial state of Generate: uniform in (−0.1, 0.1)².
+func (m Lozi) start(rng *rand.Rand) []float64 {
+	return []float64{0.2*rng.Float64() - 0.1, 0.2*rng.Float64() - 0.1}
+}
+
+// Generate returns n values of the observed coordinate after the
+// transient, started at a random point of (−0.1, 0.1)².
 func (m Lozi) Generate(n int, rng *rand.Rand) ([]float64, error) {
-	v := []float64{0.2*rng.Float64() - 0.1, 0.2*rng.Float64() - 0.1}
-	return iterateMap("lozi", m, v, n, 0)
+	return iterateMap("lozi", m, m.start(rng), n, m.Obs)
 }
 
 func init() {
@@ -44,10 +49,11 @@ func init() {
 		Params: []Param{
 			{Name: "a", Default: 1.7, Min: 1, Max: 1.75, Doc: "slope of the tent-like fold"},
 			{Name: "b", Default: 0.5, Min: 0.05, Max: 0.6, Doc: "contraction (Jacobian determinant is -b)"},
+			obsParam("x", "y"),
 		},
 		Invariants: []Invariant{
 			{Name: "lyap_sum", Value: math.Log(0.5), Unit: "per iteration", Source: "analytic: ln|det J| = ln b"},
 		},
 		DefaultClass: Chaotic,
-	}, func(p map[string]float64) Lozi { return Lozi{A: p["a"], B: p["b"]} }, 0, 0)
+	}, func(p map[string]float64) Lozi { return Lozi{A: p["a"], B: p["b"], Obs: int(p["obs"])} }, 0, 0)
 }

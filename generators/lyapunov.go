@@ -29,6 +29,29 @@ type mapping interface {
 	jacobian(dst, v []float64)
 }
 
+// tangenter is implemented by maps and fields with a sparse Jacobian
+// (lattices, rings): tangent stores J(v)·w in dst without forming J,
+// O(dim) work instead of O(dim²). mapSpectrum and flowSpectrum use it when
+// present; jacobian stays the reference the tests compare it with.
+type tangenter interface {
+	tangent(dst, v, w []float64)
+}
+
+// leader is implemented by high-dimensional systems whose label rule
+// follows only the leading exponents (the largest decides the label).
+type leader interface {
+	leading() int
+}
+
+// labelExponents is the number of exponents a label rule computes for a
+// system of dimension d: leading() where implemented, otherwise all d.
+func labelExponents(m any, d int) int {
+	if l, ok := m.(leader); ok {
+		return min(l.leading(), d)
+	}
+	return d
+}
+
 // gramSchmidt orthonormalises the k vectors of length d stored one after
 // another in w (modified Gram–Schmidt) and adds the logarithm of each
 // vector's norm before normalisation to sums. A vector that collapses to
@@ -88,17 +111,27 @@ func mapSpectrum(m mapping, x0 []float64, transient, iters, k int) (Spectrum, er
 		w[j*d+j] = 1
 	}
 	nw := make([]float64, k*d)
-	jac := make([]float64, d*d)
+	tm, sparse := m.(tangenter)
+	var jac []float64
+	if !sparse {
+		jac = make([]float64, d*d)
+	}
 	sums := make([]float64, k)
 	for it := 0; it < iters; it++ {
-		m.jacobian(jac, x)
-		for j := 0; j < k; j++ {
-			for r := 0; r < d; r++ {
-				var s float64
-				for c := 0; c < d; c++ {
-					s += jac[r*d+c] * w[j*d+c]
+		if sparse {
+			for j := 0; j < k; j++ {
+				tm.tangent(nw[j*d:(j+1)*d], x, w[j*d:(j+1)*d])
+			}
+		} else {
+			m.jacobian(jac, x)
+			for j := 0; j < k; j++ {
+				for r := 0; r < d; r++ {
+					var s float64
+					for c := 0; c < d; c++ {
+						s += jac[r*d+c] * w[j*d+c]
+					}
+					nw[j*d+r] = s
 				}
-				nw[j*d+r] = s
 			}
 		}
 		w, nw = nw, w
@@ -142,9 +175,19 @@ func flowSpectrum(f field, x0 []float64, h, transient, total, renorm float64, k 
 	for j := 0; j < k; j++ {
 		u[d+j*d+j] = 1
 	}
-	jac := make([]float64, d*d)
+	tg, sparse := f.(tangenter)
+	var jac []float64
+	if !sparse {
+		jac = make([]float64, d*d)
+	}
 	aug := func(dst, v []float64) {
 		f.eval(dst[:d], v[:d])
+		if sparse {
+			for j := 0; j < k; j++ {
+				tg.tangent(dst[d+j*d:d+(j+1)*d], v[:d], v[d+j*d:d+(j+1)*d])
+			}
+			return
+		}
 		f.jacobian(jac, v[:d])
 		for j := 0; j < k; j++ {
 			wj := v[d+j*d : d+(j+1)*d]

@@ -121,6 +121,10 @@ func (m MackeyGlass) check() error {
 	return nil
 }
 
+// start draws the constant initial history of Generate: x0 uniform in
+// [0.5, 1.5).
+func (m MackeyGlass) start(rng *rand.Rand) []float64 { return []float64{0.5 + rng.Float64()} }
+
 // Generate returns n samples after the transient.
 func (m MackeyGlass) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	if err := checkN(n); err != nil {
@@ -132,7 +136,7 @@ func (m MackeyGlass) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	if !(m.Dt > 0) || math.IsInf(m.Dt, 0) {
 		return nil, fmt.Errorf("mackey-glass: dt = %g, want dt > 0", m.Dt)
 	}
-	s := m.newState(0.5 + rng.Float64())
+	s := m.newState(m.start(rng)[0])
 	warm := int(math.Ceil(mgTransient / s.h))
 	for i := 0; i < warm; i++ {
 		m.step(s)
@@ -168,12 +172,13 @@ func (m MackeyGlass) Generate(n int, rng *rand.Rand) ([]float64, error) {
 // following a reference and a perturbed history (Benettin's two-trajectory
 // method): the difference of the whole history buffers is rescaled to
 // d0 = 1e-8 (Euclidean norm over the buffer) every τ time units and the log
-// growth factors are averaged over span time units after the transient.
-func mgLyapunov(m MackeyGlass, span float64) (Spectrum, error) {
+// growth factors are averaged over span time units after the transient
+// (the generator's). The reference history is constant at x0.
+func mgLyapunov(m MackeyGlass, x0, span float64) (Spectrum, error) {
 	if err := m.check(); err != nil {
 		return Spectrum{}, err
 	}
-	ref := m.newState(1.2)
+	ref := m.newState(x0)
 	warm := int(math.Ceil(mgTransient / ref.h))
 	for i := 0; i < warm; i++ {
 		m.step(ref)
@@ -212,7 +217,17 @@ func mgLyapunov(m MackeyGlass, span float64) (Spectrum, error) {
 	return Spectrum{Exponents: []float64{sum / t}, Unit: "per time unit", Span: t}, nil
 }
 
+// mgLabelSpan is the span of the parameter-only label rule (Class) and
+// mgSeriesSpan that of the per-series rule (ClassFrom), in time units.
+const (
+	mgLabelSpan  = 20000
+	mgSeriesSpan = 20000
+)
+
 func init() {
+	mk := func(p map[string]float64) MackeyGlass {
+		return MackeyGlass{Beta: p["beta"], Gamma: p["gamma"], N: p["n"], Tau: p["tau"], Dt: p["dt"]}
+	}
 	register(&System{
 		Name:  "mackey-glass",
 		Title: "Mackey–Glass delay equation (RK4 with Hermite history)",
@@ -227,11 +242,17 @@ func init() {
 		TimeAxis:     AxisTime,
 		DefaultClass: Chaotic,
 		lyap: func(p map[string]float64) (Spectrum, error) {
-			return mgLyapunov(MackeyGlass{Beta: p["beta"], Gamma: p["gamma"], N: p["n"], Tau: p["tau"]}, 20000)
+			return mgLyapunov(mk(p), 1.2, mgLabelSpan)
+		},
+		initial: func(p map[string]float64, rng *rand.Rand) []float64 {
+			return mk(p).start(rng)
+		},
+		lyapFrom: func(p map[string]float64, x0 []float64) (Spectrum, error) {
+			return mgLyapunov(mk(p), x0[0], mgSeriesSpan)
 		},
 		threshold: 0.002,
 		build: func(p map[string]float64) (Generator, float64, error) {
-			return MackeyGlass{Beta: p["beta"], Gamma: p["gamma"], N: p["n"], Tau: p["tau"], Dt: p["dt"]}, p["dt"], nil
+			return mk(p), p["dt"], nil
 		},
 	})
 }

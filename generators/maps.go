@@ -40,7 +40,7 @@ func (m Logistic) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	if !(m.R > 0 && m.R <= 4) {
 		return nil, fmt.Errorf("logistic: r = %g, want 0 < r ≤ 4", m.R)
 	}
-	x := 0.05 + 0.9*rng.Float64()
+	x := m.start(rng)[0]
 	out := make([]float64, n)
 	for i := -mapTransient; i < n; i++ {
 		x = m.R * x * (1 - x)
@@ -49,7 +49,7 @@ func (m Logistic) Generate(n int, rng *rand.Rand) ([]float64, error) {
 		// nudge it back onto the attractor with a fresh draw. For r ≤ 1
 		// the fixed point 0 is the attractor and is kept.
 		if m.R > 1 && (x <= 0 || x >= 1) {
-			x = 0.05 + 0.9*rng.Float64()
+			x = m.start(rng)[0]
 		}
 		if i >= 0 {
 			out[i] = x
@@ -58,14 +58,24 @@ func (m Logistic) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	return out, nil
 }
 
+// start draws the initial state of Generate: x0 uniform in (0.05, 0.95).
+func (m Logistic) start(rng *rand.Rand) []float64 {
+	return []float64{0.05 + 0.9*rng.Float64()}
+}
+
 // LogisticLyapunov returns the largest Lyapunov exponent of the logistic map
 // at r, the orbit average of ln|r(1−2x)|, from a fixed start and iters
 // iterations after a transient. It is the labelling rule of the registry:
 // above 0.01 per iteration the map is chaotic, otherwise the orbit is
 // periodic (regular).
 func LogisticLyapunov(r float64, iters int) float64 {
-	x := 0.3141592653589793
-	for i := 0; i < mapLyapTransient; i++ {
+	return logisticExponent(r, 0.3141592653589793, mapLyapTransient, iters)
+}
+
+// logisticExponent is the orbit average of ln|r(1−2x)| over iters
+// iterations from x after transient iterations.
+func logisticExponent(r, x float64, transient, iters int) float64 {
+	for i := 0; i < transient; i++ {
 		x = r * x * (1 - x)
 	}
 	var sum float64
@@ -80,11 +90,12 @@ func LogisticLyapunov(r float64, iters int) float64 {
 	return sum / float64(iters)
 }
 
-// Henon is the Hénon map x' = 1 − a·x² + y, y' = b·x, observed through x.
-// At a = 1.4, b = 0.3 its Lyapunov exponents are λ1 ≈ 0.419 per iteration and
-// λ1 + λ2 = ln b (Sprott 2003).
+// Henon is the Hénon map x' = 1 − a·x² + y, y' = b·x, observed through x
+// (Obs = 0) or y (Obs = 1). At a = 1.4, b = 0.3 its Lyapunov exponents are
+// λ1 ≈ 0.419 per iteration and λ1 + λ2 = ln b (Sprott 2003).
 type Henon struct {
 	A, B float64
+	Obs  int // observed coordinate: 0 = x, 1 = y
 }
 
 func (m Henon) dim() int { return 2 }
@@ -99,17 +110,24 @@ func (m Henon) jacobian(j, v []float64) {
 	j[2], j[3] = m.B, 0
 }
 
-// Generate returns n values of x after the transient, started near the
-// attractor at a random point of (−0.1, 0.1)².
+// start draws the initial state of Generate: uniform in (−0.1, 0.1)².
+func (m Henon) start(rng *rand.Rand) []float64 {
+	return []float64{0.2*rng.Float64() - 0.1, 0.2*rng.Float64() - 0.1}
+}
+
+// Generate returns n values of the observed coordinate after the
+// transient, started near the attractor at a random point of (−0.1, 0.1)².
 func (m Henon) Generate(n int, rng *rand.Rand) ([]float64, error) {
-	v := []float64{0.2*rng.Float64() - 0.1, 0.2*rng.Float64() - 0.1}
-	return iterateMap("henon", m, v, n, 0)
+	return iterateMap("henon", m, m.start(rng), n, m.Obs)
 }
 
 // iterateMap iterates m from v (modified), discards mapTransient
 // iterations and records coordinate obs of the next n states.
 func iterateMap(name string, m mapping, v []float64, n int, obs int) ([]float64, error) {
 	if err := checkN(n); err != nil {
+		return nil, err
+	}
+	if err := checkObs(name, obs, len(v)); err != nil {
 		return nil, err
 	}
 	w := make([]float64, len(v))
@@ -127,23 +145,52 @@ func iterateMap(name string, m mapping, v []float64, n int, obs int) ([]float64,
 	return out, nil
 }
 
-// mapLyap returns the label-rule spectrum of m from x0.
+// mapLyap returns the label-rule spectrum of m from x0 (Class).
 func mapLyap(m mapping, x0 ...float64) (Spectrum, error) {
-	return mapSpectrum(m, x0, mapLyapTransient, mapLyapIters, m.dim())
+	return mapSpectrum(m, x0, mapLyapTransient, mapLyapIters, labelExponents(m, m.dim()))
+}
+
+// mapLyapFrom returns λ1 of the per-series label rule of m from the
+// generator's start x0 (ClassFrom): the generator's transient
+// (mapTransient) is discarded, then mapLyapIters iterations are averaged.
+// Only the leading tangent vector is followed: Gram–Schmidt normalises it
+// alone, so λ1 is the one the full computation gives, at a fraction of the
+// cost.
+func mapLyapFrom(m mapping, x0 []float64) (Spectrum, error) {
+	return mapSpectrum(m, x0, mapTransient, mapLyapIters, 1)
+}
+
+// mapModel is an iterated map the registry generates and labels per
+// series: start draws the initial state exactly as Generate does.
+type mapModel interface {
+	Generator
+	mapping
+	start(rng *rand.Rand) []float64
 }
 
 // registerMap registers s as an iterated map with the label rule of the
 // maps: samples on the iteration axis, the generator mk(p) with sample
-// interval 1, and the label chaotic when λ1 of the tangent map of mk(p) from
-// the fixed start x0 (mapLyap) exceeds mapChaosThreshold, otherwise regular.
-// s supplies the rest (name, docs, parameters, invariants, default class).
-func registerMap[M interface {
-	Generator
-	mapping
-}](s *System, mk func(p map[string]float64) M, x0 ...float64) {
+// interval 1, and the label chaotic when λ1 of the tangent map of mk(p)
+// exceeds mapChaosThreshold, otherwise regular. Class follows the orbit
+// from the fixed start x0 (mapLyap), ClassFrom the orbit from the start
+// Generate draws (mapLyapFrom). s supplies the rest (name, docs,
+// parameters, invariants, default class).
+func registerMap[M mapModel](s *System, mk func(p map[string]float64) M, x0 ...float64) {
+	registerMapFrom(s, mk, fixedStart(x0...))
+}
+
+// registerMapFrom is registerMap for a fixed start of Class that depends on
+// the parameters (e.g. on the dimension).
+func registerMapFrom[M mapModel](s *System, mk func(p map[string]float64) M, x0 func(p map[string]float64) []float64) {
 	s.TimeAxis = AxisIteration
 	s.lyap = func(p map[string]float64) (Spectrum, error) {
-		return mapLyap(mk(p), x0...)
+		return mapLyap(mk(p), x0(p)...)
+	}
+	s.initial = func(p map[string]float64, rng *rand.Rand) []float64 {
+		return mk(p).start(rng)
+	}
+	s.lyapFrom = func(p map[string]float64, x0 []float64) (Spectrum, error) {
+		return mapLyapFrom(mk(p), x0)
 	}
 	s.threshold = mapChaosThreshold
 	s.build = func(p map[string]float64) (Generator, float64, error) {
@@ -158,6 +205,15 @@ const logisticRule = " Label: chaotic when the map's Lyapunov exponent at r, the
 func init() {
 	logisticLyap := func(p map[string]float64) (Spectrum, error) {
 		return Spectrum{Exponents: []float64{LogisticLyapunov(p["r"], mapLyapIters)}, Unit: "per iteration", Span: mapLyapIters}, nil
+	}
+	initial := func(p map[string]float64, rng *rand.Rand) []float64 {
+		return Logistic{R: p["r"]}.start(rng)
+	}
+	// The per-series rule: the same average along the orbit from the
+	// generator's start, after the generator's transient.
+	logisticFrom := func(p map[string]float64, x0 []float64) (Spectrum, error) {
+		l := logisticExponent(p["r"], x0[0], mapTransient, mapLyapIters)
+		return Spectrum{Exponents: []float64{l}, Unit: "per iteration", Span: mapLyapIters}, nil
 	}
 	build := func(p map[string]float64) (Generator, float64, error) {
 		return Logistic{R: p["r"]}, 1, nil
@@ -174,6 +230,8 @@ func init() {
 		TimeAxis:     AxisIteration,
 		DefaultClass: Chaotic,
 		lyap:         logisticLyap,
+		initial:      initial,
+		lyapFrom:     logisticFrom,
 		threshold:    mapChaosThreshold,
 		build:        build,
 	})
@@ -185,6 +243,8 @@ func init() {
 		TimeAxis:     AxisIteration,
 		DefaultClass: Regular,
 		lyap:         logisticLyap,
+		initial:      initial,
+		lyapFrom:     logisticFrom,
 		threshold:    mapChaosThreshold,
 		build:        build,
 	})
@@ -195,6 +255,7 @@ func init() {
 		Params: []Param{
 			{Name: "a", Default: 1.4, Min: 0.4, Max: 1.42, Doc: "nonlinearity"},
 			{Name: "b", Default: 0.3, Min: 0.05, Max: 0.31, Doc: "contraction (Jacobian determinant is -b)"},
+			obsParam("x", "y"),
 		},
 		Invariants: []Invariant{
 			{Name: "lyap_max", Value: 0.41922, Unit: "per iteration", Source: "Sprott, Chaos and Time-Series Analysis (2003), appendix (memory)"},
@@ -202,5 +263,5 @@ func init() {
 			{Name: "corr_dim", Value: 1.21, Unit: "", Source: "Grassberger & Procaccia, Physica D 9 (1983) 189 (memory)"},
 		},
 		DefaultClass: Chaotic,
-	}, func(p map[string]float64) Henon { return Henon{A: p["a"], B: p["b"]} }, 0, 0)
+	}, func(p map[string]float64) Henon { return Henon{A: p["a"], B: p["b"], Obs: int(p["obs"])} }, 0, 0)
 }

@@ -89,6 +89,9 @@ func sampleFlow(name string, f field, v []float64, n int, dt, maxH, transient fl
 	if !(dt > 0) || math.IsInf(dt, 0) {
 		return nil, fmt.Errorf("%s: dt = %g, want dt > 0", name, dt)
 	}
+	if err := checkObs(name, obs, len(v)); err != nil {
+		return nil, err
+	}
 	steps, h := substeps(dt, maxH)
 	ig := newRK4(len(v))
 	w, _ := f.(wrapper)

@@ -4,13 +4,14 @@ import "math/rand/v2"
 
 // Rossler is the Rössler flow dx/dt = −y − z, dy/dt = x + a·y,
 // dz/dt = b + z·(x − c) (Rössler, Phys. Lett. A 57 (1976) 397), integrated
-// by RK4 with internal step ≤ 0.01 and observed through x every Dt time
-// units. At a = b = 0.2 it is chaotic at c = 5.7 (λ1 ≈ 0.0714 per time unit,
+// by RK4 with internal step ≤ 0.01 and observed through x (Obs = 0; y
+// and z with Obs = 1, 2) every Dt time units. At a = b = 0.2 it is chaotic at c = 5.7 (λ1 ≈ 0.0714 per time unit,
 // Sprott 2003) and passes through period doubling below: period 1 at
 // c = 2.5, period 2 at c = 3.5, period 4 at c = 4.
 type Rossler struct {
 	A, B, C float64
 	Dt      float64 // sample interval in time units, > 0
+	Obs     int     // observed coordinate: 0 = x, 1 = y, 2 = z
 }
 
 const (
@@ -32,19 +33,22 @@ func (m Rossler) jacobian(j, v []float64) {
 	j[6], j[7], j[8] = v[2], 0, v[0]-m.C
 }
 
-// Generate returns n samples of x after a transient of 300 time units,
-// started from a random point of [1, 2) × [1, 2) × [0, 1).
-func (m Rossler) Generate(n int, rng *rand.Rand) ([]float64, error) {
-	v := []float64{1 + rng.Float64(), 1 + rng.Float64(), rng.Float64()}
-	return sampleFlow("rossler", m, v, n, m.Dt, rosslerStep, rosslerTransient, 0)
+// start draws the initial state of Generate: uniform in
+// [1, 2) × [1, 2) × [0, 1).
+func (m Rossler) start(rng *rand.Rand) []float64 {
+	return []float64{1 + rng.Float64(), 1 + rng.Float64(), rng.Float64()}
 }
 
-// rosslerLyap is the label rule's spectrum: orbit from (1, 1, 0), 300 time
-// units of transient, 2000 averaged, re-orthonormalised every time unit.
-func rosslerLyap(p map[string]float64) (Spectrum, error) {
-	m := Rossler{A: p["a"], B: p["b"], C: p["c"]}
-	return flowSpectrum(m, []float64{1, 1, 0}, rosslerStep, rosslerTransient, 2000, 1, 3)
+// Generate returns n samples of the observed coordinate after a transient
+// of 300 time units, started from a random point of [1, 2) × [1, 2) × [0, 1).
+func (m Rossler) Generate(n int, rng *rand.Rand) ([]float64, error) {
+	return sampleFlow("rossler", m, m.start(rng), n, m.Dt, rosslerStep, rosslerTransient, m.Obs)
 }
+
+// rosslerRule is the label rule: 300 time units of transient, 2000
+// averaged, re-orthonormalised every time unit; Class starts from
+// (1, 1, 0).
+var rosslerRule = flowRule{h: rosslerStep, transient: rosslerTransient, span: 2000, renorm: 1}
 
 func init() {
 	params := func(c float64) []Param {
@@ -53,13 +57,14 @@ func init() {
 			{Name: "b", Default: 0.2, Min: 0.1, Max: 2, Doc: "coefficient b"},
 			{Name: "c", Default: c, Min: 2, Max: 14, Doc: "coefficient c (period doubling to chaos as c grows at a = b = 0.2)"},
 			{Name: "dt", Default: 0.1, Min: 1e-3, Max: 2, Doc: "sample interval (time units); one loop takes about 6 time units"},
+			obsParam("x", "y", "z"),
 		}
 	}
-	build := func(p map[string]float64) (Generator, float64, error) {
-		return Rossler{A: p["a"], B: p["b"], C: p["c"], Dt: p["dt"]}, p["dt"], nil
+	mk := func(p map[string]float64) Rossler {
+		return Rossler{A: p["a"], B: p["b"], C: p["c"], Dt: p["dt"], Obs: int(p["obs"])}
 	}
 	const rule = " Label: chaotic when λ1 of the variational equations (orbit from (1, 1, 0), 2000 time units after 300 of transient) exceeds 0.02 per time unit, otherwise regular."
-	register(&System{
+	registerFlow(&System{
 		Name:   "rossler",
 		Title:  "Rössler flow (observed x), RK4",
 		Doc:    "Chaotic at a = b = 0.2, c = 5.7. Internal RK4 step ≤ 0.01 time units; transient 300 time units." + rule,
@@ -67,21 +72,15 @@ func init() {
 		Invariants: []Invariant{
 			{Name: "lyap_max", Value: 0.0714, Unit: "per time unit", Source: "Sprott, Chaos and Time-Series Analysis (2003) (memory)"},
 		},
-		TimeAxis:     AxisTime,
 		DefaultClass: Chaotic,
-		lyap:         rosslerLyap,
 		threshold:    0.02,
-		build:        build,
-	})
-	register(&System{
+	}, mk, fixedStart(1, 1, 0), rosslerRule)
+	registerFlow(&System{
 		Name:         "rossler-periodic",
 		Title:        "Rössler flow at c = 4 (period-4 orbit), RK4",
 		Doc:          "The Rössler entry preset to c = 4 on the period-doubling cascade (period 4); c = 2.5 gives period 1 and c = 3.5 period 2. Same equations and label rule as \"rossler\"." + rule,
 		Params:       params(4),
-		TimeAxis:     AxisTime,
 		DefaultClass: Regular,
-		lyap:         rosslerLyap,
 		threshold:    0.02,
-		build:        build,
-	})
+	}, mk, fixedStart(1, 1, 0), rosslerRule)
 }

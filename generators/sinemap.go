@@ -25,8 +25,11 @@ func (m SineMap) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	if !(m.R > 0 && m.R <= 1) {
 		return nil, fmt.Errorf("sine-map: r = %g, want 0 < r ≤ 1", m.R)
 	}
-	return iterateMap("sine-map", m, []float64{0.05 + 0.9*rng.Float64()}, n, 0)
+	return iterateMap("sine-map", m, m.start(rng), n, 0)
 }
+
+// start draws the initial state of Generate: x0 uniform in (0.05, 0.95).
+func (m SineMap) start(rng *rand.Rand) []float64 { return []float64{0.05 + 0.9*rng.Float64()} }
 
 func init() {
 	registerMap(&System{

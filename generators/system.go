@@ -12,8 +12,13 @@
 // the parameters can cross regimes: the largest Lyapunov exponent is
 // integrated along an orbit with the tangent map (maps) or the variational
 // equations (flows) and compared with a documented threshold
-// (System.Lyapunov, System.Class). Noises carry a fixed stochastic label and
-// synthetic periodic waveforms a fixed regular label.
+// (System.Lyapunov, System.Class). System.Class follows the orbit from a
+// fixed start; System.ClassFrom labels one series, following the orbit from
+// the start its generator draws, which matters where attractors coexist or
+// a conservative system mixes chaotic and regular motion. Noises carry a
+// fixed stochastic label and synthetic periodic waveforms a fixed regular
+// label. Multi-dimensional maps and flows record the state variable chosen
+// by their "obs" parameter (0, the default, is the classical observable).
 package generators
 
 import (
@@ -107,6 +112,17 @@ type System struct {
 	// build returns the generator and the sample interval (in the unit of
 	// TimeAxis) for a full parameter set.
 	build func(p map[string]float64) (Generator, float64, error)
+
+	// initial and lyapFrom make labels per series (ClassFrom); both are
+	// optional and set together. initial draws the start of the orbit
+	// from rng exactly as the generator built for p does (same draws in
+	// the same order: the generator calls the same code), and lyapFrom
+	// computes the label rule's spectrum (at least λ1) along the orbit
+	// from that start, discarding the generator's transient. Systems
+	// with lyap but without them fall back to the parameter-only label
+	// of Class. registerMap and registerFlow set both.
+	initial  func(p map[string]float64, rng *rand.Rand) []float64
+	lyapFrom func(p map[string]float64, x0 []float64) (Spectrum, error)
 }
 
 // ErrUnknownSystem is returned by Lookup for a name that is not registered.
@@ -140,6 +156,9 @@ func register(s *System) {
 	}
 	if s.label == nil && s.lyap == nil {
 		panic("generators: system " + s.Name + " has no label rule")
+	}
+	if (s.initial == nil) != (s.lyapFrom == nil) || (s.initial != nil && s.lyap == nil) {
+		panic("generators: system " + s.Name + " sets only part of the per-series label rule")
 	}
 	registry[s.Name] = s
 }
@@ -219,10 +238,17 @@ func (s *System) param(name string) (Param, bool) {
 	return Param{}, false
 }
 
-// isDefault reports whether p equals the default parameter set.
+// recordingParams names the parameters that change how an orbit is
+// recorded, not the orbit: the sample interval and the observed
+// coordinate. No label rule depends on them, so they are left out of the
+// default check and of the label cache key.
+var recordingParams = map[string]bool{"dt": true, "obs": true}
+
+// isDefault reports whether p equals the default parameter set in every
+// parameter a label rule can depend on.
 func (s *System) isDefault(p map[string]float64) bool {
 	for _, q := range s.Params {
-		if p[q.Name] != q.Default {
+		if !recordingParams[q.Name] && p[q.Name] != q.Default {
 			return false
 		}
 	}
@@ -231,7 +257,11 @@ func (s *System) isDefault(p map[string]float64) bool {
 
 // Class returns the label of the system for the given overrides (nil means
 // defaults). The logistic map, for example, is chaotic at r = 4 and regular
-// at r = 3.5. At the defaults it returns DefaultClass without computing;
+// at r = 3.5. The label depends on the parameters only: it follows the
+// orbit from a fixed start, so in multistable or mixed phase spaces it
+// holds for that orbit, not for every series (ClassFrom labels a series).
+// The sample interval dt and the observed coordinate obs never change it.
+// At the defaults it returns DefaultClass without computing;
 // elsewhere a computed label is cached per parameter set, so repeated calls
 // are cheap. The error wraps ErrDiverged when the orbit used by the rule
 // escapes.
@@ -259,13 +289,9 @@ func (s *System) computeClass(p map[string]float64) (Class, error) {
 	if ok {
 		return c, nil
 	}
-	sp, err := s.lyap(p)
+	c, err := s.classify(s.lyap(p))
 	if err != nil {
-		return "", fmt.Errorf("%s: label rule: %w", s.Name, err)
-	}
-	c = Regular
-	if sp.Exponents[0] > s.threshold {
-		c = Chaotic
+		return "", err
 	}
 	classCache.Lock()
 	if len(classCache.m) >= classCacheMax {
@@ -277,6 +303,44 @@ func (s *System) computeClass(p map[string]float64) (Class, error) {
 	classCache.m[key] = c
 	classCache.Unlock()
 	return c, nil
+}
+
+// classify applies the threshold of the label rule to a spectrum.
+func (s *System) classify(sp Spectrum, err error) (Class, error) {
+	if err != nil {
+		return "", fmt.Errorf("%s: label rule: %w", s.Name, err)
+	}
+	if sp.Exponents[0] > s.threshold {
+		return Chaotic, nil
+	}
+	return Regular, nil
+}
+
+// ClassFrom returns the label of the series that s.Generate(n, overrides,
+// r2) returns when r2 is a generator in the same state as rng (for any n):
+// it draws the initial condition exactly as Generate does and applies the
+// label rule along the orbit from that start, after the same transient
+// Generate discards (Benettin spectrum compared with ChaosThreshold). So
+// a multistable system (coexisting chaotic and periodic attractors, or a
+// conservative system with a chaotic sea and invariant tori) is labelled
+// by the attractor or region its series actually visits. Systems with a
+// fixed label return it without using rng; equation systems without a
+// per-series rule return the parameter-only Class, also without using
+// rng. Nothing is cached (the start differs per call); the cost is one
+// Benettin integration, a few to a few tens of milliseconds. The error
+// wraps ErrParamRange or ErrUnknownParam for bad overrides, ErrDiverged
+// when the orbit escapes and ErrConstant when a system whose range
+// includes fixed points reports one (quadratic-map).
+func (s *System) ClassFrom(overrides map[string]float64, rng *rand.Rand) (Class, error) {
+	p, err := s.Resolve(overrides)
+	if err != nil {
+		return "", err
+	}
+	if s.initial == nil {
+		return s.computeClass(p)
+	}
+	x0 := s.initial(p, rng)
+	return s.classify(s.lyapFrom(p, x0))
 }
 
 // classCacheMax bounds the number of cached computed labels.
@@ -291,6 +355,9 @@ func (s *System) cacheKey(p map[string]float64) string {
 	var b strings.Builder
 	b.WriteString(s.Name)
 	for _, q := range s.Params {
+		if recordingParams[q.Name] {
+			continue
+		}
 		b.WriteByte(' ')
 		b.WriteString(strconv.FormatFloat(p[q.Name], 'g', -1, 64))
 	}
@@ -391,6 +458,30 @@ func Times(n int, dt float64) []float64 {
 
 func fixed(c Class) func(map[string]float64) (Class, error) {
 	return func(map[string]float64) (Class, error) { return c, nil }
+}
+
+// obsParam is the parameter "obs" of a multi-dimensional map or flow:
+// the index of the recorded state variable, whose names are listed in
+// order. The default 0 is the coordinate the system was first observed
+// through.
+func obsParam(names ...string) Param {
+	var b strings.Builder
+	b.WriteString("observed state variable:")
+	for i, n := range names {
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		fmt.Fprintf(&b, " %d = %s", i, n)
+	}
+	return Param{Name: "obs", Default: 0, Min: 0, Max: float64(len(names) - 1), Integer: true, Doc: b.String()}
+}
+
+// checkObs rejects an observed coordinate outside the state of dimension d.
+func checkObs(name string, obs, d int) error {
+	if obs < 0 || obs >= d {
+		return fmt.Errorf("%s: %w: obs = %d, want 0 ≤ obs < %d", name, ErrParamRange, obs, d)
+	}
+	return nil
 }
 
 // checkN rejects non-positive lengths.

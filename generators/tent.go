@@ -34,8 +34,11 @@ func (m Tent) Generate(n int, rng *rand.Rand) ([]float64, error) {
 	if !(m.Mu > 1 && m.Mu < 2) {
 		return nil, fmt.Errorf("tent: mu = %g, want 1 < mu < 2 (mu = 2 collapses in floating point)", m.Mu)
 	}
-	return iterateMap("tent", m, []float64{0.05 + 0.9*rng.Float64()}, n, 0)
+	return iterateMap("tent", m, m.start(rng), n, 0)
 }
+
+// start draws the initial state of Generate: x0 uniform in (0.05, 0.95).
+func (m Tent) start(rng *rand.Rand) []float64 { return []float64{0.05 + 0.9*rng.Float64()} }
 
 func init() {
 	registerMap(&System{

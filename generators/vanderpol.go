@@ -7,10 +7,11 @@ import "math/rand/v2"
 // 978). For every μ > 0 it has one attracting limit cycle, so its motion
 // after the transient is periodic: λ1 = 0 (the flow direction) and the other
 // exponent is negative. Integrated by RK4 with internal step ≤ 0.01 and
-// observed through x.
+// observed through x (Obs = 0) or y = x' (Obs = 1).
 type VanDerPol struct {
-	Mu float64
-	Dt float64 // sample interval in time units, > 0
+	Mu  float64
+	Dt  float64 // sample interval in time units, > 0
+	Obs int     // observed coordinate: 0 = x, 1 = y
 }
 
 const (
@@ -30,33 +31,33 @@ func (m VanDerPol) jacobian(j, v []float64) {
 	j[2], j[3] = -2*m.Mu*v[0]*v[1]-1, m.Mu*(1-v[0]*v[0])
 }
 
-// Generate returns n samples of x after a transient of 200 time units,
-// started from a random point of [−1, 1)².
+// start draws the initial state of Generate: uniform in [−1, 1)².
+func (m VanDerPol) start(rng *rand.Rand) []float64 {
+	return []float64{2*rng.Float64() - 1, 2*rng.Float64() - 1}
+}
+
+// Generate returns n samples of the observed coordinate after a transient
+// of 200 time units, started from a random point of [−1, 1)².
 func (m VanDerPol) Generate(n int, rng *rand.Rand) ([]float64, error) {
-	v := []float64{2*rng.Float64() - 1, 2*rng.Float64() - 1}
-	return sampleFlow("van-der-pol", m, v, n, m.Dt, vdpStep, vdpTransient, 0)
+	return sampleFlow("van-der-pol", m, m.start(rng), n, m.Dt, vdpStep, vdpTransient, m.Obs)
 }
 
 func init() {
-	register(&System{
+	registerFlow(&System{
 		Name:  "van-der-pol",
 		Title: "van der Pol limit-cycle oscillator (observed x), RK4",
 		Doc:   "Periodic limit cycle for every mu > 0: near-sinusoidal for small mu, relaxation oscillation for large mu. Internal RK4 step ≤ 0.01; transient 200 time units. Label: the flow label rule (chaotic when λ1 of the variational equations, orbit from (1, 0), 1000 time units after 200, exceeds 0.02 per time unit) gives regular throughout the range.",
 		Params: []Param{
 			{Name: "mu", Default: 1, Min: 0.1, Max: 5, Doc: "nonlinearity μ"},
 			{Name: "dt", Default: 0.1, Min: 1e-3, Max: 1, Doc: "sample interval (time units); the period is 2π at small μ"},
+			obsParam("x", "y = x'"),
 		},
 		Invariants: []Invariant{
 			{Name: "lyap_max", Value: 0, Unit: "per time unit", Source: "analytic: an attracting limit cycle of an autonomous flow"},
 		},
-		TimeAxis:     AxisTime,
 		DefaultClass: Regular,
-		lyap: func(p map[string]float64) (Spectrum, error) {
-			return flowSpectrum(VanDerPol{Mu: p["mu"]}, []float64{1, 0}, vdpStep, vdpTransient, 1000, 1, 2)
-		},
-		threshold: 0.02,
-		build: func(p map[string]float64) (Generator, float64, error) {
-			return VanDerPol{Mu: p["mu"], Dt: p["dt"]}, p["dt"], nil
-		},
-	})
+		threshold:    0.02,
+	}, func(p map[string]float64) VanDerPol {
+		return VanDerPol{Mu: p["mu"], Dt: p["dt"], Obs: int(p["obs"])}
+	}, fixedStart(1, 0), flowRule{h: vdpStep, transient: vdpTransient, span: 1000, renorm: 1})
 }

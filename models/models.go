@@ -5,9 +5,10 @@
 //	go run ./cmd/tracesift train --reference --seed 1 -o models/default.model
 //
 // It trains on the reference set (every system of the generators package
-// with randomised parameters, lengths and observational noise; see
-// classifier.ReferencePlan) and reproduces the committed file byte for
-// byte. A test fails when the embedded model's feature schema differs from
+// with randomised parameters, observed coordinates, lengths and measurement
+// chains; see classifier.ReferencePlan), stores the leave-one-family-out
+// validation and the novelty index in the file, and reproduces the
+// committed file byte for byte. A test fails when the embedded model's feature schema differs from
 // the running feature catalogue, so a stale model cannot ship: after any
 // change to the features, run the command again and commit the new file.
 package models

@@ -3,6 +3,8 @@ package trace
 import (
 	"fmt"
 	"math"
+
+	"tracesift/internal/order"
 )
 
 // UnevenTolerance is the relative jitter of time steps accepted as even
@@ -85,43 +87,4 @@ func median(x []float64) float64 {
 
 // selectK reorders x so that x[k] is the k-th smallest value and
 // everything left of k is ≤ x[k], and returns x[k].
-func selectK(x []float64, k int) float64 {
-	lo, hi := 0, len(x)-1
-	for hi > lo {
-		mid := lo + (hi-lo)/2
-		// median of three into x[mid]
-		if x[mid] < x[lo] {
-			x[mid], x[lo] = x[lo], x[mid]
-		}
-		if x[hi] < x[lo] {
-			x[hi], x[lo] = x[lo], x[hi]
-		}
-		if x[hi] < x[mid] {
-			x[hi], x[mid] = x[mid], x[hi]
-		}
-		p := x[mid]
-		i, j := lo, hi
-		for i <= j {
-			for x[i] < p {
-				i++
-			}
-			for x[j] > p {
-				j--
-			}
-			if i <= j {
-				x[i], x[j] = x[j], x[i]
-				i++
-				j--
-			}
-		}
-		switch {
-		case k <= j:
-			hi = j
-		case k >= i:
-			lo = i
-		default:
-			return x[k]
-		}
-	}
-	return x[k]
-}
+func selectK(x []float64, k int) float64 { return order.Select(x, k) }

@@ -22,8 +22,12 @@
 //   - plane: the trace on the complexity–entropy plane (ordinal order 6 by
 //     default, with its bounds) among reference systems drawn from the
 //     generators at fixed seeds and at the trace's length;
-//   - surrogates: rank tests of a few statistics against IAAFT surrogates
-//     with Holm's adjustment (table and strip plot);
+//   - surrogates: the determinism test of 'classify --significance'
+//     (surrogate.Determinism: forecast skill and time-reversal asymmetry
+//     at the embedding delay against IAAFT surrogates, one-sided,
+//     Holm-adjusted) with what it says about the verdict (also stated in
+//     the verdict section), optional two-sided rank tests of features
+//     (Options.Stats), and a strip plot of all of them;
 //   - methods: how each part was computed, the model, references and the
 //     feature catalogue with the trace's values.
 //

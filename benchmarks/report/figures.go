@@ -444,9 +444,9 @@ func planeFigure(p *PlanePanel) string {
 // surrogateFigure draws, for each statistic, the surrogate values and the
 // observed value in units of the surrogate standard deviation around the
 // surrogate mean, so statistics of different scales share one axis.
-func surrogateFigure(rep *surrogate.Report) string {
+func surrogateFigure(results []surrogate.Result) string {
 	var rows []surrogate.Result
-	for _, r := range rep.Tests {
+	for _, r := range results {
 		if r.Error == "" && len(r.Values) > 0 && r.SD > 0 {
 			rows = append(rows, r)
 		}

@@ -10,6 +10,7 @@ import (
 
 	"tracesift/classifier"
 	"tracesift/features"
+	"tracesift/features/surrogate"
 )
 
 // Section ids, in the order the report shows them.
@@ -97,6 +98,10 @@ type view struct {
 	PlaneNote         string
 	RefRows           []refRow
 	PlaneFailures     []string
+	DeterminismLine   string
+	DetIntro          string
+	DetRows           []surrogateRow
+	DetAgreement      string
 	SurrogateIntro    string
 	SurrogateRows     []surrogateRow
 	SurrogateFig      *figure
@@ -328,24 +333,85 @@ func (r *Report) viewPlane(v *view) {
 
 func (r *Report) viewSurrogates(v *view) {
 	v.SurrogateFailures = r.Failures[sectionSurrogates]
-	rep := r.Surrogates
 	if r.Options.Surrogates < 0 {
 		v.SurrogatesSkipped = true
+		v.DeterminismLine = "skipped at the caller's request."
 		return
 	}
-	if rep == nil {
-		return
+	var figRows []surrogate.Result
+	if d := r.Determinism; d != nil {
+		figRows = append(figRows, r.viewDeterminism(v, d)...)
+	} else {
+		v.DeterminismLine = "not computed (see section 6)."
 	}
-	used := fmt.Sprintf("all %d samples", rep.Used)
-	if rep.Used < r.Summary.Samples {
-		used = fmt.Sprintf("the middle %d of the %d samples", rep.Used, r.Summary.Samples)
+	if rep := r.Surrogates; rep != nil {
+		r.viewFeatureTests(v, rep)
+		figRows = append(figRows, rep.Tests...)
 	}
+	if svg := surrogateFigure(figRows); svg != "" {
+		v.SurrogateFig = &figure{template.HTML(svg),
+			"Figure 9. Each statistic's surrogate values (ticks) and observed value (diamond, red when the null hypothesis is rejected after Holm's adjustment), in surrogate standard deviations from the surrogate mean; dotted lines at ±1.96. The determinism statistics are one-sided: only a diamond far to the right (more predictable, more time-asymmetric than every surrogate) counts against the null. A diamond far outside the ticks means the trace has structure the null hypothesis cannot produce."}
+	}
+}
+
+// stretchText describes the samples a surrogate test used.
+func (r *Report) stretchText(start, used int) string {
+	switch {
+	case used >= r.Summary.Samples:
+		return fmt.Sprintf("all %d samples", used)
+	case start >= 0:
+		return fmt.Sprintf("samples %d–%d of the %d", start, start+used-1, r.Summary.Samples)
+	}
+	return fmt.Sprintf("the middle %d of the %d samples", used, r.Summary.Samples)
+}
+
+// viewDeterminism fills the determinism-test part of section 6 and the
+// verdict's test line, and returns the statistics for the figure.
+func (r *Report) viewDeterminism(v *view, d *surrogate.DeterminismResult) []surrogate.Result {
+	a := d.Agreement(r.Verdict.Class)
+	v.DeterminismLine = capitalise(a.Text) + "."
+	v.DetAgreement = v.DeterminismLine
+	trim := ""
+	if d.EndMatched {
+		trim = ", trimmed so that its two ends match"
+	}
+	v.DetIntro = fmt.Sprintf("Is the structure of the trace significant against %d IAAFT surrogates (seed %d), which keep its values exactly and its power spectrum closely? Null hypothesis: %s. Tested on %s%s, Gaussianised (each value replaced by the normal quantile of its rank, so that only the order of the values matters). The delay τ = %d and dimension d = %d are chosen once on the trace and used for every surrogate. "+
+		"%s: correlation of simplex forecasts %d samples ahead with the truth; "+
+		"%s: |skewness| of the increments x(t+τ) − x(t), zero in expectation for every time-reversible process, surrogates included. "+
+		"Both are one-sided (larger than the surrogates), p = (1 + #{surrogates ≥ observed})/(M + 1), Holm-adjusted over the two; the null is rejected when an adjusted p is at most α = %s, which needs at least %d surrogates.",
+		d.Count, d.Seed, strings.TrimSuffix(d.NullHypothesis, "."), r.stretchText(d.Start, d.Len), trim, d.Delay, d.Dim,
+		surrogate.StatPredSkill, d.Horizon, surrogate.StatReversal, h4(d.Alpha), d.MinSurrogates)
+	var rows []surrogate.Result
+	for _, s := range d.Stats {
+		z := math.NaN()
+		if s.SD > 0 {
+			z = (s.Observed - s.Mean) / s.SD
+		}
+		row := surrogateRow{Stat: s.Name, Observed: h4(s.Observed), Surrogates: h4(s.Mean) + " ± " + h4(s.SD),
+			Z: fixedOrDash(z, 2), P: h3(s.P), PHolm: h3(s.PHolm), Rejected: s.Significant, Verdict: testVerdict(s.Error, s.Significant, false, s.Failed)}
+		v.DetRows = append(v.DetRows, row)
+		rows = append(rows, surrogate.Result{Stat: s.Name, Observed: s.Observed, Mean: s.Mean, SD: s.SD, Z: z,
+			Significant: s.Significant, Values: s.Values, Error: s.Error})
+		for _, w := range s.Warnings {
+			v.SurrogateNotes = append(v.SurrogateNotes, s.Name+": "+w)
+		}
+	}
+	if s := d.IAAFT; s != nil {
+		v.SurrogateNotes = append(v.SurrogateNotes, iaaftNote("Determinism test", s))
+	}
+	v.SurrogateNotes = append(v.SurrogateNotes, d.Warnings...)
+	return rows
+}
+
+// viewFeatureTests fills the part of section 6 on the tests of
+// Options.Stats.
+func (r *Report) viewFeatureTests(v *view, rep *surrogate.Report) {
 	null := strings.TrimSpace(rep.NullHypothesis)
 	if !strings.HasSuffix(null, ".") {
 		null += "."
 	}
 	v.SurrogateIntro = fmt.Sprintf("Each statistic is computed on the trace (%s) and on %d %s surrogates (seed %d). Null hypothesis: %s %s rank test at α = %s with Holm's adjustment over the %d statistics; p = (1 + #{surrogates at least as extreme})/(M + 1), doubled for two sides, so the smallest p reachable is %s.",
-		used, rep.Count, strings.ToUpper(string(rep.Method)), rep.Seed, null, capitalise(string(rep.Side)), h4(rep.Alpha), len(rep.Tests), h3(2/float64(rep.Count+1)))
+		r.stretchText(-1, rep.Used), rep.Count, strings.ToUpper(string(rep.Method)), rep.Seed, null, capitalise(string(rep.Side)), h4(rep.Alpha), len(rep.Tests), h3(2/float64(rep.Count+1)))
 	need := HolmSurrogates(len(rep.Tests), rep.Alpha)
 	tooFew := rep.Count < need
 	if tooFew {
@@ -353,30 +419,12 @@ func (r *Report) viewSurrogates(v *view) {
 			rep.Count, len(rep.Tests), len(rep.Tests), rep.Count+1, h3(float64(2*len(rep.Tests))/float64(rep.Count+1)), h4(rep.Alpha), need))
 	}
 	for _, t := range rep.Tests {
-		row := surrogateRow{Stat: t.Stat, Observed: h4(t.Observed), Surrogates: h4(t.Mean) + " ± " + h4(t.SD),
-			Z: fixedOrDash(t.Z, 2), P: h3(t.P), PHolm: h3(t.PHolm), Rejected: t.Significant}
-		switch {
-		case t.Error != "":
-			row.Verdict = "not computable: " + t.Error
-		case t.Significant:
-			row.Verdict = "null rejected"
-		case tooFew && t.P <= 2/float64(t.Count+1):
-			row.Verdict = "most extreme possible, but too few surrogates for significance"
-		default:
-			row.Verdict = "consistent with the null"
-		}
-		if t.Failed > 0 {
-			row.Verdict += fmt.Sprintf(" (failed on %d surrogates)", t.Failed)
-		}
-		v.SurrogateRows = append(v.SurrogateRows, row)
-	}
-	if svg := surrogateFigure(rep); svg != "" {
-		v.SurrogateFig = &figure{template.HTML(svg),
-			"Figure 9. Each statistic's surrogate values (ticks) and observed value (diamond, red when the null hypothesis is rejected after Holm's adjustment), in surrogate standard deviations from the surrogate mean; dotted lines at ±1.96. A diamond far outside the ticks means the trace has structure the null hypothesis cannot produce."}
+		extreme := tooFew && t.P <= 2/float64(t.Count+1)
+		v.SurrogateRows = append(v.SurrogateRows, surrogateRow{Stat: t.Stat, Observed: h4(t.Observed), Surrogates: h4(t.Mean) + " ± " + h4(t.SD),
+			Z: fixedOrDash(t.Z, 2), P: h3(t.P), PHolm: h3(t.PHolm), Rejected: t.Significant, Verdict: testVerdict(t.Error, t.Significant, extreme, t.Failed)})
 	}
 	if s := rep.IAAFT; s != nil {
-		v.SurrogateNotes = append(v.SurrogateNotes, fmt.Sprintf("IAAFT: %s iterations on average (at most %d, %d stopped by the cap); spectral error %s on average, at most %s.",
-			h3(s.MeanIterations), s.MaxIterations, s.NotConverged, h3(s.MeanSpectralError), h3(s.MaxSpectralError)))
+		v.SurrogateNotes = append(v.SurrogateNotes, iaaftNote("Feature tests", s))
 	}
 	v.SurrogateNotes = append(v.SurrogateNotes, rep.Warnings...)
 	for _, t := range rep.Tests {
@@ -384,6 +432,30 @@ func (r *Report) viewSurrogates(v *view) {
 			v.SurrogateNotes = append(v.SurrogateNotes, t.Stat+": "+w)
 		}
 	}
+}
+
+// testVerdict is the verdict column of a surrogate-test row.
+func testVerdict(errText string, significant, extremeButTooFew bool, failed int) string {
+	var s string
+	switch {
+	case errText != "":
+		s = "not computable: " + errText
+	case significant:
+		s = "null rejected"
+	case extremeButTooFew:
+		s = "most extreme possible, but too few surrogates for significance"
+	default:
+		s = "consistent with the null"
+	}
+	if failed > 0 {
+		s += fmt.Sprintf(" (failed on %d surrogates)", failed)
+	}
+	return s
+}
+
+func iaaftNote(who string, s *surrogate.IAAFTSummary) string {
+	return fmt.Sprintf("%s, IAAFT: %s iterations on average (at most %d, %d stopped by the cap); spectral error %s on average, at most %s.",
+		who, h3(s.MeanIterations), s.MaxIterations, s.NotConverged, h3(s.MeanSpectralError), h3(s.MaxSpectralError))
 }
 
 func (r *Report) viewMethods(v *view) {

@@ -17,12 +17,12 @@ import (
 )
 
 // Defaults used when an Options field is left at its zero value, and the
-// floor of the automatic surrogate count.
+// floor of the automatic surrogate count of the feature tests.
 const (
 	// MinSurrogates is the smallest surrogate count the automatic choice
-	// (see Options.Surrogates) makes: 39 is the least with which one
-	// two-sided rank test can reach p = 0.05 (M = 2/α − 1; Theiler et al.,
-	// Physica D 58 (1992) 77).
+	// for the feature tests (see Options.StatSurrogates) makes: 39 is the
+	// least with which one two-sided rank test can reach p = 0.05
+	// (M = 2/α − 1; Theiler et al., Physica D 58 (1992) 77).
 	MinSurrogates = 39
 	// DefaultOrder is the ordinal-pattern order of the complexity–entropy
 	// plane: 720 patterns, the finest order that a trace of a few thousand
@@ -30,11 +30,10 @@ const (
 	// recommend 3 ≤ d ≤ 7 with n ≫ d!; the report flags W/d! < 10).
 	DefaultOrder = 6
 	// DefaultSurrogateLength caps the stretch of the trace the surrogate
-	// test uses (the middle of a longer trace). The nonlinear-prediction
-	// statistic costs ~30 ms per call at 4096 samples and ~100 ms at 10^4,
-	// times 160 calls, so the cap keeps the test at a few CPU-seconds
-	// while leaving 4096 samples, enough for every default statistic.
-	DefaultSurrogateLength = 4096
+	// tests use (the middle of a longer trace), as the determinism test of
+	// 'classify --significance' does (surrogate.DefaultDeterminismLength):
+	// the report and the command test the same samples.
+	DefaultSurrogateLength = surrogate.DefaultDeterminismLength
 	// DefaultGraphLength caps the stretch (the middle of a longer trace)
 	// whose visibility graphs are drawn; 2^16 nodes fill the degree
 	// distributions well past their tails and take well under a second.
@@ -42,11 +41,6 @@ const (
 	// DefaultAlpha is the significance level of the surrogate tests.
 	DefaultAlpha = 0.05
 )
-
-// DefaultStats are the statistics tested against surrogates: time-reversal
-// asymmetry, the fall of nonlinear forecast skill, permutation entropy and
-// the HVG degree-tail rate.
-var DefaultStats = []string{"asym_abs", "pred_decay", "perm_entropy", "hvg_lambda"}
 
 // ErrOption reports an invalid Options field.
 var ErrOption = errors.New("invalid report option")
@@ -57,27 +51,36 @@ type Options struct {
 	// The reference systems of the complexity–entropy plane use fixed seeds
 	// of their own, so they look the same in every report.
 	Seed uint64
-	// Surrogates is the number of IAAFT surrogates M. Zero chooses the
-	// least M with which a statistic can still be declared significant
-	// after Holm's adjustment over the m statistics tested: the smallest
-	// two-sided rank p-value is 2/(M+1) and Holm multiplies the smallest p
-	// by m, so M = ⌈2m/α − 1⌉ (159 for the four default statistics at
-	// α = 0.05), and at least MinSurrogates. A negative value skips the
-	// surrogate test. With fewer surrogates than that the report says that
-	// no statistic can reach significance.
+	// Surrogates is the number of IAAFT surrogates M of the determinism
+	// test (surrogate.Determinism, the test of 'classify --significance').
+	// Zero chooses the least M with which it can reject at Alpha after
+	// Holm's adjustment over its two one-sided statistics,
+	// surrogate.DeterminismSurrogates (39 at α = 0.05). A negative value
+	// skips every surrogate test.
 	Surrogates int
-	// Method is the surrogate generator (default IAAFT).
-	Method surrogate.Method
-	// Stats are the feature names tested against surrogates (default
-	// DefaultStats); each is computed by features.Value with Seed.
+	// Stats are feature names tested against surrogates in addition to
+	// the determinism test (two-sided rank tests, Holm-adjusted among
+	// themselves); none by default. Each is computed by features.Value with
+	// Seed.
 	Stats []string
+	// StatSurrogates is the number of surrogates of the feature tests.
+	// Zero chooses the least M with which one of them can still be declared
+	// significant after Holm's adjustment over the m statistics: the
+	// smallest two-sided rank p-value is 2/(M+1) and Holm multiplies it by
+	// m, so M = ⌈2m/α − 1⌉ (159 for four statistics at α = 0.05), and at
+	// least MinSurrogates. With fewer the report says that no statistic can
+	// reach significance.
+	StatSurrogates int
+	// Method is the surrogate generator of the feature tests (default
+	// IAAFT; the determinism test always uses IAAFT).
+	Method surrogate.Method
 	// Alpha is the significance level of the surrogate tests (default 0.05).
 	Alpha float64
 	// Order is the ordinal-pattern order of the complexity–entropy plane
 	// (default 6, between ordinal.MinOrder and ordinal.MaxOrder).
 	Order int
 	// SurrogateLength and GraphLength cap the stretch (taken from the
-	// middle of the trace) used by the surrogate test and the visibility
+	// middle of the trace) used by the surrogate tests and the visibility
 	// graphs (defaults DefaultSurrogateLength and DefaultGraphLength).
 	SurrogateLength, GraphLength int
 	// References are the systems placed on the complexity–entropy plane
@@ -88,7 +91,8 @@ type Options struct {
 	Screen classifier.ScreenOptions
 	// Generator names the program in the footer, e.g. "tracesift 0.1.0".
 	Generator string
-	// Progress, if set, is called after each surrogate (see
+	// Progress, if set, is called after each surrogate of either test with
+	// the number finished and the total of both (see
 	// surrogate.Options.Progress).
 	Progress func(done, total int)
 }
@@ -99,9 +103,6 @@ type Options struct {
 func (o Options) Resolved() (Options, error) {
 	if o.Method == "" {
 		o.Method = surrogate.IAAFT
-	}
-	if o.Stats == nil {
-		o.Stats = DefaultStats
 	}
 	if o.Alpha == 0 {
 		o.Alpha = DefaultAlpha
@@ -123,8 +124,10 @@ func (o Options) Resolved() (Options, error) {
 		return o, fmt.Errorf("%w: order %d outside [%d, %d]", ErrOption, o.Order, ordinal.MinOrder, ordinal.MaxOrder)
 	case !(o.Alpha > 0 && o.Alpha < 1):
 		return o, fmt.Errorf("%w: alpha %g outside (0, 1)", ErrOption, o.Alpha)
-	case o.SurrogateLength < 64 || o.GraphLength < 64:
-		return o, fmt.Errorf("%w: surrogate and graph lengths must be at least 64", ErrOption)
+	case o.SurrogateLength < surrogate.DeterminismMinLength || o.GraphLength < 64:
+		return o, fmt.Errorf("%w: the surrogate length must be at least %d and the graph length at least 64", ErrOption, surrogate.DeterminismMinLength)
+	case o.StatSurrogates < 0:
+		return o, fmt.Errorf("%w: %d surrogates for the feature tests", ErrOption, o.StatSurrogates)
 	}
 	if _, err := surrogate.ParseMethod(string(o.Method)); err != nil {
 		return o, fmt.Errorf("%w: %w", ErrOption, err)
@@ -134,11 +137,11 @@ func (o Options) Resolved() (Options, error) {
 			return o, fmt.Errorf("%w: statistic %q: %w", ErrOption, s, features.ErrUnknownFeature)
 		}
 	}
-	if len(o.Stats) == 0 && o.Surrogates >= 0 {
-		return o, fmt.Errorf("%w: no statistic to test against surrogates", ErrOption)
-	}
 	if o.Surrogates == 0 {
-		o.Surrogates = max(MinSurrogates, HolmSurrogates(len(uniq(o.Stats)), o.Alpha))
+		o.Surrogates = surrogate.DeterminismSurrogates(o.Alpha)
+	}
+	if o.StatSurrogates == 0 && len(o.Stats) > 0 {
+		o.StatSurrogates = max(MinSurrogates, HolmSurrogates(len(uniq(o.Stats)), o.Alpha))
 	}
 	return o, nil
 }
@@ -157,7 +160,10 @@ type Report struct {
 	Increments *IncrementsPanel
 	HVG, NVG   *GraphPanel
 	Plane      *PlanePanel
-	Surrogates *surrogate.Report
+	// Determinism is the surrogate test of determinism (nil when skipped
+	// or failed); Surrogates the tests of Options.Stats (nil without).
+	Determinism *surrogate.DeterminismResult
+	Surrogates  *surrogate.Report
 	// Failures maps a section id to the reasons some of its panels are
 	// missing.
 	Failures map[string][]string
@@ -269,14 +275,25 @@ func Build(tr trace.Trace, m *classifier.Model, opts Options) (*Report, error) {
 		r.Plane = p
 	})
 	if o.Surrogates > 0 {
+		progress := sharedProgress(o)
 		run(func() {
-			rep, err := runSurrogates(x, o)
+			res, err := runDeterminism(x, o, progress(0))
 			if err != nil {
-				fail(sectionSurrogates, "%v", err)
+				fail(sectionSurrogates, "determinism test: %v", err)
 				return
 			}
-			r.Surrogates = rep
+			r.Determinism = res
 		})
+		if len(o.Stats) > 0 {
+			run(func() {
+				rep, err := runSurrogates(x, o, progress(1))
+				if err != nil {
+					fail(sectionSurrogates, "feature tests: %v", err)
+					return
+				}
+				r.Surrogates = rep
+			})
+		}
 	}
 	wg.Wait()
 	if screenErr != nil {

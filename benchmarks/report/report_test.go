@@ -16,6 +16,7 @@ import (
 
 	"tracesift/classifier"
 	"tracesift/features"
+	"tracesift/features/surrogate"
 	"tracesift/generators"
 	"tracesift/trace"
 )
@@ -169,7 +170,8 @@ func TestReportIsWellFormedAndComplete(t *testing.T) {
 	if svgs != 9 {
 		t.Errorf("%d figures, want 9", svgs)
 	}
-	for _, want := range []string{Caution, "hvg_lambda", "asym_abs", "Hénon", "fitted Gaussian", "(1/3)(2/3)^(k−2)", "tracesift test"} {
+	for _, want := range []string{Caution, "hvg_lambda", "asym_abs", "Hénon", "fitted Gaussian", "(1/3)(2/3)^(k−2)", "tracesift test",
+		"Determinism test", "pred_rho_tau", "asym_tau", "Surrogate test of determinism (section 6):", "Model and test."} {
 		if !bytes.Contains(html, []byte(esc(want))) {
 			t.Errorf("report does not mention %q", want)
 		}
@@ -225,17 +227,31 @@ func checkNoExternal(t *testing.T, e xml.StartElement) {
 }
 
 func TestReportIsDeterministic(t *testing.T) {
-	// Two statistics and 79 surrogates (the least for Holm over two at
-	// α = 0.05) keep this fast; the full default report is rendered once
-	// by the other tests.
-	opts := Options{Seed: 3, Stats: []string{"asym_abs", "hvg_lambda"}}
+	// The determinism test with its default 39 surrogates, plus two feature
+	// statistics with 79 surrogates (the least for Holm over two at
+	// α = 0.05), keep this fast; the default report is rendered once by
+	// the other tests.
+	var mu sync.Mutex
+	var lastDone, lastTotal int
+	opts := Options{Seed: 3, Stats: []string{"asym_abs", "hvg_lambda"}, Progress: func(done, total int) {
+		mu.Lock()
+		defer mu.Unlock()
+		lastDone, lastTotal = max(lastDone, done), total
+	}}
 	tr := henonTrace(t, 3000, 1e-6, 5e-6)
 	a, ra := render(t, tr, opts)
-	if ra.Surrogates.Count != 79 {
-		t.Errorf("%d surrogates, want 79 = ⌈2·2/0.05 − 1⌉", ra.Surrogates.Count)
+	if ra.Surrogates.Count != 79 || ra.Determinism.Count != 39 {
+		t.Errorf("%d and %d surrogates, want 79 = ⌈2·2/0.05 − 1⌉ and 39 = ⌈2/0.05 − 1⌉", ra.Surrogates.Count, ra.Determinism.Count)
+	}
+	if lastDone != 118 || lastTotal != 118 {
+		t.Errorf("progress reached %d of %d, want 118 of 118 (both tests)", lastDone, lastTotal)
+	}
+	if !bytes.Contains(a, []byte("Further statistics")) {
+		t.Error("the feature tests are not shown")
 	}
 	// Same input and seed on one thread: the parallel parts must place their
 	// results by index, so the bytes cannot depend on the thread count.
+	opts.Progress = nil
 	prev := runtime.GOMAXPROCS(1)
 	b, _ := render(t, tr, opts)
 	runtime.GOMAXPROCS(prev)
@@ -312,19 +328,34 @@ func TestReportContent(t *testing.T) {
 	if !(tr.Complexity > white.Complexity+0.1) || !(tr.Complexity > (tr.MinComplexity+tr.MaxComplexity)/2) {
 		t.Errorf("Hénon at C = %.3f (bounds %.3f–%.3f), white at C = %.3f", tr.Complexity, tr.MinComplexity, tr.MaxComplexity, white.Complexity)
 	}
-	// Time-reversal asymmetry of dissipative chaos is far outside the IAAFT
-	// null (Theiler et al., Physica D 58 (1992) 77; Schreiber & Schmitz,
-	// Physica D 142 (2000) 346): the rank test reaches its smallest p.
-	for _, res := range r.Surrogates.Tests {
-		if res.Stat == "asym_abs" && !res.Significant {
-			t.Errorf("asym_abs not significant for Hénon: %+v", res)
+	// Dissipative chaos is more predictable one delay ahead and more
+	// time-asymmetric than every IAAFT surrogate (Theiler et al., Physica D
+	// 58 (1992) 77; Schreiber & Schmitz, Phys. Rev. Lett. 77 (1996) 635;
+	// Sugihara & May, Nature 344 (1990) 734): both rank p-values reach
+	// their least value 1/40 and the test rejects; with a chaotic verdict
+	// the two agree, and the verdict section says so.
+	d := r.Determinism
+	if d == nil || !d.Rejected || d.Count != 39 || d.Count != surrogate.DeterminismSurrogates(0.05) {
+		t.Fatalf("determinism test %+v", d)
+	}
+	for _, s := range d.Stats {
+		if s.P != 1.0/40 || !s.Significant {
+			t.Errorf("%s: p = %g, significant %v", s.Name, s.P, s.Significant)
 		}
 	}
-	// Four statistics at α = 0.05, two-sided: M = ⌈2·4/0.05 − 1⌉ = 159
-	// (smallest rank p 2/(M+1), times 4 by Holm; Theiler et al. 1992, Holm
-	// 1979), derived.
-	if r.Surrogates.Count != 159 || HolmSurrogates(4, 0.05) != 159 || HolmSurrogates(1, 0.05) != 39 {
-		t.Errorf("%d surrogates, want 159", r.Surrogates.Count)
+	html, _ := henonHTML(t)
+	a := d.Agreement(r.Verdict.Class)
+	if a.Kind != surrogate.Agree || bytes.Count(html, []byte(esc(capitalise(a.Text)))) != 2 {
+		t.Errorf("agreement %+v not stated in the verdict and surrogate sections", a)
+	}
+	if r.Surrogates != nil {
+		t.Error("feature tests ran without Options.Stats")
+	}
+	// Feature tests at α = 0.05, two-sided: M = ⌈2m/0.05 − 1⌉, 159 for
+	// four statistics (smallest rank p 2/(M+1), times m by Holm; Theiler et
+	// al. 1992, Holm 1979), derived.
+	if HolmSurrogates(4, 0.05) != 159 || HolmSurrogates(1, 0.05) != 39 {
+		t.Errorf("HolmSurrogates(4) = %d, HolmSurrogates(1) = %d", HolmSurrogates(4, 0.05), HolmSurrogates(1, 0.05))
 	}
 }
 
@@ -350,7 +381,7 @@ func TestReportSkipsAndLongTraces(t *testing.T) {
 func TestOptionErrors(t *testing.T) {
 	tr := henonTrace(t, 600, 1, 0)
 	m := model(t)
-	for _, o := range []Options{{Order: 9}, {Stats: []string{"nosuch"}}, {Alpha: 2}, {Method: "bogus"}, {GraphLength: 10}} {
+	for _, o := range []Options{{Order: 9}, {Stats: []string{"nosuch"}}, {Alpha: 2}, {Method: "bogus"}, {GraphLength: 10}, {SurrogateLength: 100}, {StatSurrogates: -1}} {
 		if _, err := Build(tr, m, o); !errors.Is(err, ErrOption) {
 			t.Errorf("%+v: err %v, want ErrOption", o, err)
 		}

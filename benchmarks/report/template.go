@@ -54,6 +54,7 @@ table.compact td, table.compact th { padding: .18rem .4rem; }
 .txt-stochastic { color: #2f6f8f; }
 .txt-regular { color: #5b8a2e; }
 .verdict p.line { color: var(--ink); font-size: .95rem; }
+.agreement { margin: .8rem 0; padding: .4rem .8rem; border-left: 3px solid var(--accent); font-size: .92rem; }
 .caution { margin: 1.2rem 0; padding: .6rem 1rem; border: 1px solid var(--ink); font-size: .92rem; }
 ul.notes { margin: .3rem 0 .8rem; padding-left: 1.3rem; font-size: .9rem; }
 .muted { color: var(--muted); }
@@ -112,6 +113,9 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <p class="cls">{{.Class}}</p>
 <p class="line">{{.ClassLine}}</p>
 </div>
+{{- if .DeterminismLine}}
+<p class="agreement"><strong>Surrogate test of determinism (section 6):</strong> {{.DeterminismLine}}</p>
+{{- end}}
 <p class="caution"><strong>Caution.</strong> {{.Caution}}</p>
 {{template "figure" .ProbFig}}
 {{- if .Reasons}}
@@ -222,16 +226,16 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 {{- range .SurrogateFailures}}
 <p class="failed">Not computed: {{.}}</p>
 {{- end}}
-{{- if .SurrogateIntro}}
-<p>{{.SurrogateIntro}}</p>
-<table>
-<thead><tr><th class="code">statistic</th><th class="n">observed</th><th class="n">surrogates (mean ± sd)</th><th class="n">z</th><th class="n">p</th><th class="n">Holm p</th><th>verdict</th></tr></thead>
-<tbody>
-{{- range .SurrogateRows}}
-<tr{{if .Rejected}} class="rejected"{{end}}><td class="code">{{.Stat}}</td><td class="n">{{.Observed}}</td><td class="n">{{.Surrogates}}</td><td class="n">{{.Z}}</td><td class="n">{{.P}}</td><td class="n">{{.PHolm}}</td><td>{{.Verdict}}</td></tr>
+{{- if .DetIntro}}
+<h3>Determinism test</h3>
+<p>{{.DetIntro}}</p>
+{{template "tests" .DetRows}}
+<p class="agreement"><strong>Model and test.</strong> {{.DetAgreement}}</p>
 {{- end}}
-</tbody>
-</table>
+{{- if .SurrogateIntro}}
+<h3>Further statistics</h3>
+<p>{{.SurrogateIntro}}</p>
+{{template "tests" .SurrogateRows}}
 {{- end}}
 {{- with .SurrogateFig}}
 {{template "figure" .}}
@@ -251,7 +255,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <p><strong>Increments.</strong> Histogram with the Freedman–Diaconis bin width on a symmetric range (40 bins for short traces); the Gaussian has the increments' mean and standard deviation. The Kolmogorov–Smirnov distance is judged against the Lilliefors critical value because the Gaussian is fitted (Lilliefors 1967).</p>
 <p><strong>Visibility graphs.</strong> Natural visibility (Lacasa et al. 2008) and horizontal visibility (Luque et al. 2009); HVG tail rate by maximum likelihood of a geometric tail with k_min chosen by the Kolmogorov–Smirnov distance (Lacasa &amp; Toral 2010); NVG power-law exponent by discrete maximum likelihood (Clauset, Shalizi &amp; Newman 2009); local clustering by triangle counting (Watts &amp; Strogatz 1998).</p>
 <p><strong>Complexity–entropy plane.</strong> Ordinal patterns (Bandt &amp; Pompe 2002), normalised permutation entropy and Jensen–Shannon statistical complexity (Rosso et al. 2007), bounds after Martin, Plastino &amp; Rosso (2006). Reference series come from tracesift's generators at fixed seeds and the trace's length.</p>
-<p><strong>Surrogates.</strong> Iterated amplitude-adjusted Fourier transform surrogates (Schreiber &amp; Schmitz 1996) keep the values and, closely, the power spectrum: they embody a static monotone transform of a linear Gaussian process. Rank-based p-values (Theiler et al. 1992; Schreiber &amp; Schmitz 2000), Holm's step-down adjustment across statistics (Holm 1979).</p>
+<p><strong>Surrogates.</strong> Iterated amplitude-adjusted Fourier transform surrogates (Schreiber &amp; Schmitz 1996) keep the values and, closely, the power spectrum: they embody a static monotone transform of a linear Gaussian process. The determinism test (the test of <code>classify --significance</code>) compares the simplex forecast skill (Sugihara &amp; May 1990) and the time-reversal asymmetry of the increments (Theiler et al. 1992) of the rank-Gaussianised trace, both at the embedding delay (first minimum of the mutual information, Fraser &amp; Swinney 1986; dimension by Cao 1997), with their surrogate distributions. Rank-based p-values (Theiler et al. 1992; Schreiber &amp; Schmitz 2000), Holm's step-down adjustment across statistics (Holm 1979).</p>
 <h3>Model</h3>
 <dl class="facts two">
 {{- range .ModelFacts}}
@@ -262,7 +266,9 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <ol class="refs">
 <li>Bandt C, Pompe B. Permutation entropy: a natural complexity measure for time series. Phys. Rev. Lett. 88 (2002) 174102.</li>
 <li>Breiman L. Random forests. Machine Learning 45 (2001) 5.</li>
+<li>Cao L. Practical method for determining the minimum embedding dimension of a scalar time series. Physica D 110 (1997) 43.</li>
 <li>Clauset A, Shalizi CR, Newman MEJ. Power-law distributions in empirical data. SIAM Review 51 (2009) 661.</li>
+<li>Fraser AM, Swinney HL. Independent coordinates for strange attractors from mutual information. Phys. Rev. A 33 (1986) 1134.</li>
 <li>Holm S. A simple sequentially rejective multiple test procedure. Scand. J. Statist. 6 (1979) 65.</li>
 <li>Lacasa L, Luque B, Ballesteros F, Luque J, Nuño JC. From time series to complex networks: the visibility graph. PNAS 105 (2008) 4972.</li>
 <li>Lacasa L, Luque B, Luque J, Nuño JC. The visibility graph: a new method for estimating the Hurst exponent of fractional Brownian motion. EPL 86 (2009) 30001 (memory).</li>
@@ -275,6 +281,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <li>Saabas A. Interpreting random forests (2014), blog post (memory).</li>
 <li>Schreiber T, Schmitz A. Improved surrogate data for nonlinearity tests. Phys. Rev. Lett. 77 (1996) 635.</li>
 <li>Schreiber T, Schmitz A. Surrogate time series. Physica D 142 (2000) 346.</li>
+<li>Sugihara G, May RM. Nonlinear forecasting as a way of distinguishing chaos from measurement error in time series. Nature 344 (1990) 734.</li>
 <li>Theiler J, Eubank S, Longtin A, Galdrikian B, Farmer JD. Testing for nonlinearity in time series: the method of surrogate data. Physica D 58 (1992) 77.</li>
 <li>Watts DJ, Strogatz SH. Collective dynamics of small-world networks. Nature 393 (1998) 440.</li>
 </ol>
@@ -292,10 +299,18 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <footer>{{.Footer}}</footer>
 </body>
 </html>
-{{/* Sub-templates: a figure with its caption; the sections' "not shown" lines. */ -}}
+{{/* Sub-templates: a figure with its caption; a table of surrogate tests; the sections' "not shown" lines. */ -}}
 {{define "figure"}}<figure>
 {{.SVG}}
 <figcaption>{{.Caption}}</figcaption>
 </figure>{{end}}
+{{- define "tests"}}<table>
+<thead><tr><th class="code">statistic</th><th class="n">observed</th><th class="n">surrogates (mean ± sd)</th><th class="n">z</th><th class="n">p</th><th class="n">Holm p</th><th>verdict</th></tr></thead>
+<tbody>
+{{- range .}}
+<tr{{if .Rejected}} class="rejected"{{end}}><td class="code">{{.Stat}}</td><td class="n">{{.Observed}}</td><td class="n">{{.Surrogates}}</td><td class="n">{{.Z}}</td><td class="n">{{.P}}</td><td class="n">{{.PHolm}}</td><td>{{.Verdict}}</td></tr>
+{{- end}}
+</tbody>
+</table>{{end}}
 {{- define "failures"}}{{range .}}
 <p class="failed">Not shown: {{.}}</p>{{end}}{{end}}`

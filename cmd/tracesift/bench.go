@@ -42,7 +42,15 @@ func newBenchCmd(e *env) *cobra.Command {
    chaotic-versus-stochastic accuracy and a per-system breakdown against
    series length and observational SNR, on reference series drawn with
    seeds the model never saw (plan seed 1000 + --seed).
-3. Throughput: samples per second of HVG and NVG construction, feature
+3. Leave-one-family-out validation: a fresh reference set (plan seed
+   2000 + --seed, every family, the full recording chain) in which every
+   family of reference systems is predicted by a forest trained on all the
+   others: accuracy per family, length and SNR, chaos versus noise, and the
+   calibration of the probabilities (Brier score, expected calibration
+   error, reliability diagram). This is what to expect on dynamics the
+   model has never seen; it retrains small forests and does not use
+   --model.
+4. Throughput: samples per second of HVG and NVG construction, feature
    extraction and screening from 10^3 samples up (10^5 with --quick, 10^6
    with --full), with the fitted exponent p of time ~ n^p. Timings depend on
    the machine and its load and are marked so in the JSON; everything else
@@ -51,16 +59,17 @@ func newBenchCmd(e *env) *cobra.Command {
 DIR (created if missing) receives summary.md (readable tables with sources
 and the screening caution), results.json (everything, machine-readable,
 missing values as null) and PNG plots: invariant recovery, accuracy against
-length and SNR, HVG degree distributions, the complexity–entropy plane and
-throughput. Every file is written atomically.
+length and SNR, the reliability diagram, HVG degree distributions, the
+complexity–entropy plane and throughput. Every file is written atomically.
 
---quick (the default) finishes in under a minute on two cores: three seeds
-per invariant, one series per reference system at lengths 1000 and 5000,
-clean and at 10 dB SNR, throughput up to 10^5 samples. --full is the
-thorough run behind the figures quoted in the README (eight seeds at two
-lengths per invariant; three to six series per system at lengths 500–20000
-and SNR clean/40/20/10 dB; throughput up to 10^6 samples); it takes several
-minutes.
+--quick (the default) is a short run on two cores: three seeds per
+invariant, one series per reference system at lengths 1000 and 5000, clean
+and at 10 dB SNR, leave-one-family-out on 120 series per class with
+10-tree forests, throughput up to 10^5 samples. --full is the thorough run
+behind the figures quoted in the README (eight seeds at two lengths per
+invariant; three to six series per system at lengths 500–20000 and SNR
+clean/40/20/10 dB; leave-one-family-out on 900 series per class with
+30-tree forests; throughput up to 10^6 samples); it takes several minutes.
 
 The verdicts measured here are a screening aid, not a device qualification
 result: defer to your laboratory's qualification procedures and the

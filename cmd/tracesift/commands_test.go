@@ -179,9 +179,16 @@ func TestClassifyJSONKeysAndScaleInvariance(t *testing.T) {
 		if err := json.Unmarshal([]byte(l), &got[i]); err != nil {
 			t.Fatal(err)
 		}
-		for _, k := range []string{"file", "class", "probabilities", "warnings"} {
+		for _, k := range []string{"file", "class", "probabilities", "warnings", "novelty"} {
 			if _, ok := got[i][k]; !ok {
 				t.Errorf("classify JSON lacks %q", k)
+			}
+		}
+		// The novelty measure names what decides "unlike the training set".
+		nv := got[i]["novelty"].(map[string]interface{})
+		for _, k := range []string{"distance", "percentile", "limit", "k", "nearest"} {
+			if _, ok := nv[k]; !ok {
+				t.Errorf("novelty lacks %q: %v", k, nv)
 			}
 		}
 		sum := 0.0
@@ -192,7 +199,7 @@ func TestClassifyJSONKeysAndScaleInvariance(t *testing.T) {
 			t.Errorf("probabilities sum to %v", sum)
 		}
 	}
-	if got[0]["class"] != got[1]["class"] || !equalJSON(got[0]["probabilities"], got[1]["probabilities"]) {
+	if got[0]["class"] != got[1]["class"] || !equalJSON(got[0]["probabilities"], got[1]["probabilities"]) || !equalJSON(got[0]["novelty"], got[1]["novelty"]) {
 		t.Errorf("units changed the verdict: %v vs %v", got[0], got[1])
 	}
 }
@@ -239,7 +246,7 @@ func TestTrainFromLabelsIsReproducible(t *testing.T) {
 		t.Fatal("the same labels and seed gave different model files")
 	}
 	m, err := classifier.Load(m1)
-	if err != nil || m.CV == nil || m.Training.Rows != 18 {
+	if err != nil || m.Validation == nil || m.Validation.Overall.Rows != 18 || m.Training.Rows != 18 {
 		t.Fatalf("model %v, err %v", m, err)
 	}
 }

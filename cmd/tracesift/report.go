@@ -41,19 +41,26 @@ screen and on paper:
     i.i.d. law and the fitted exponential tail (HVG) and power law (NVG);
   - the local clustering of both graphs;
   - the trace on the complexity–entropy plane among reference systems;
-  - rank tests of time asymmetry, nonlinear predictability, permutation
-    entropy and the HVG tail rate against IAAFT surrogates, Holm-adjusted;
+  - the surrogate test of determinism of 'classify --significance'
+    (nonlinear forecast gain and time-reversal asymmetry at the embedding
+    delay against IAAFT surrogates, one-sided, Holm-adjusted), with what
+    it says about the verdict, and optional rank tests of any feature
+    (--stat) against surrogates;
   - methods, references and the whole feature vector.
 
-By default the surrogate count is the least with which a statistic can reach
-significance after Holm's adjustment (159 for the four default statistics at
-α = 0.05), run on the middle 4096 samples of longer traces. The same file,
-model and seed give the same bytes: the report holds no date.
+The surrogate tests run on the middle 4096 samples of longer traces. By
+default the determinism test uses the least number of surrogates with which
+it can reject at α = 0.05 after Holm's adjustment over its two one-sided
+statistics (39); feature tests given with --stat use the least with which
+one of them can (⌈2m/α − 1⌉ for m two-sided tests: 159 for four).
+--surrogates M sets both. The same file, model and seed give the same
+bytes: the report holds no date.
 
 The verdict is a screening aid, not a device qualification result.`,
 		Example: `  tracesift report testdata/demo/stressed/D01_stressed_Vg1.20.csv -o D01.html
   tracesift report trace.csv --model lab.model --seed 7 -o trace.html
-  tracesift report trace.csv --surrogates 39 --stat asym_abs -o quick.html`,
+  tracesift report trace.csv --surrogates -1 -o quick.html
+  tracesift report trace.csv --stat perm_entropy --stat hvg_lambda -o trace.html`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			return runReport(e, args[0], &o)
@@ -64,8 +71,8 @@ The verdict is a screening aid, not a device qualification result.`,
 	f.StringVarP(&o.out, "output", "o", "", "HTML file to write (required; - for stdout)")
 	f.StringVar(&o.model, "model", "", "model file (default: the embedded model)")
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the feature estimators and the surrogates")
-	f.IntVar(&o.surrogates, "surrogates", 0, "number of IAAFT surrogates (0: the least that allows significance after Holm's adjustment; -1 skips the test)")
-	f.StringSliceVar(&o.stats, "stat", nil, "statistic tested against surrogates (repeatable; default "+strings.Join(report.DefaultStats, ", ")+")")
+	f.IntVar(&o.surrogates, "surrogates", 0, "number of IAAFT surrogates of every test (0: the least that allows significance after Holm's adjustment; -1 skips the tests)")
+	f.StringSliceVar(&o.stats, "stat", nil, "feature also tested against surrogates (repeatable; default none)")
 	f.IntVar(&o.order, "order", report.DefaultOrder, "ordinal-pattern order of the complexity–entropy plane (3–7)")
 	return c
 }
@@ -90,6 +97,9 @@ func runReport(e *env, file string, o *reportOptions) error {
 		Order:      o.order,
 		Generator:  "tracesift " + versionString(),
 	}
+	if o.surrogates > 0 {
+		opts.StatSurrogates = o.surrogates
+	}
 	resolved, err := opts.Resolved()
 	if errors.Is(err, features.ErrUnknownFeature) {
 		return usageError{fmt.Errorf("%w; valid: %s", err, strings.Join(features.Names(), ", "))}
@@ -106,7 +116,11 @@ func runReport(e *env, file string, o *reportOptions) error {
 		return err
 	}
 	if resolved.Surrogates > 0 {
-		opts.Progress = newProgress(e, resolved.Surrogates, "surrogates")
+		total := resolved.Surrogates
+		if len(resolved.Stats) > 0 {
+			total += resolved.StatSurrogates
+		}
+		opts.Progress = newProgress(e, total, "surrogates")
 	}
 	rep, err := report.Build(tr, m, opts)
 	if errors.Is(err, report.ErrOption) {

@@ -7,18 +7,24 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
 
+	"tracesift/benchmarks"
 	"tracesift/classifier"
 	"tracesift/features"
 )
 
 func init() { addCommand(newTrainCmd) }
 
-// cvTrees is the size of the cross-validation fold forests.
-const cvTrees = 100
+// cvTrees is the default size of the cross-validation fold forests: the
+// held-out accuracy of a forest levels off long before that (measured on
+// the reference set: 20 and 50 trees per fold give leave-one-family-out
+// accuracies within 0.3 points of each other), and leave-one-family-out
+// grows one forest per family.
+const cvTrees = 30
 
 type trainOptions struct {
 	in            inputOptions
@@ -26,7 +32,8 @@ type trainOptions struct {
 	labels        string
 	withReference bool
 	seed          uint64
-	folds         int
+	folds         string
+	cvTrees       int
 	trees         int
 	perClass      int
 	out           string
@@ -40,25 +47,37 @@ func newTrainCmd(e *env) *cobra.Command {
 		Long: `Train the tree-ensemble classifier and write a model file.
 
 --reference trains on the built-in reference set: every reference system
-('tracesift systems') drawn with randomised parameters inside its regime,
-lengths from 512 to 20000 samples and, for 60% of the series, Gaussian
-observational noise at 10–40 dB SNR (denser towards 10 dB); labels follow
-each system's rule (for
-deterministic systems, the sign of the largest Lyapunov exponent computed
-from the equations).
+('tracesift systems') drawn with randomised parameters over ranges that
+cross its regimes (a chaotic map's periodic windows included), a randomly
+chosen observed coordinate, lengths from 512 to 20000 samples, and a
+randomly drawn measurement chain: a quarter of the series clean, the others
+through sensor transfer curves, instrument low-pass, white, AR(1), 1/f or
+heavy-tailed measurement noise at 10–40 dB SNR (denser towards 10 dB), slow
+drift, and converters of 8–4096 levels that use part of their range or
+clip at the rails. Labels follow each system's rule along each series' own
+orbit: for deterministic systems the sign of the largest Lyapunov exponent
+computed from the equations from the series' own initial condition (a draw
+in a periodic window is regular); deterministic draws that hold fewer than
+ten cycles are left out.
 
 --labels CSV trains on your own captures: a CSV with the header file,class
 and one row per trace; paths are relative to the labels file, classes are
 chaotic, regular or stochastic. --with-reference adds the reference set.
 
-Before training the final model, k-fold cross-validation (fold forests of
-100 trees) estimates its
-accuracy. Folds are grouped: all series of one reference system (or one
-labelled file) stay in the same fold, so the figures say how the model does
-on systems it has never seen. The command prints the pooled confusion
-matrix, per-class precision and recall, accuracy per system, and the
-permutation importance of the features on the held-out folds. The same
-data and seed give a byte-identical model file.`,
+Before training the final model, held-out validation estimates its
+accuracy on kinds of dynamics it has never seen. With --reference the
+default is leave-one-family-out: every family of reference systems (systems
+that share their equations, e.g. the Lorenz flow and its periodic preset)
+is predicted by a forest trained on all the other families. With --labels
+alone the default is 5-fold cross-validation grouped by file (--folds N
+chooses N folds grouped by family or file for either; --folds 0 skips
+validation). The command prints the pooled confusion matrix, accuracy
+overall, per family, per length and per measurement SNR, how often chaos
+and noise are taken for each other, the calibration of the probabilities
+(Brier score, expected calibration error and the reliability table), and
+the permutation importance of the features on the held-out rows; the
+figures are stored in the model file. The same data and seed give a
+byte-identical model file.`,
 		Example: `  tracesift train --reference --seed 1 -o models/default.model
   tracesift train --labels testdata/demo/labels.csv --with-reference -o lab.model
   tracesift train --labels captures/labels.csv --folds 10 --seed 7 -o lab.model`,
@@ -73,9 +92,10 @@ data and seed give a byte-identical model file.`,
 	f.StringVar(&o.labels, "labels", "", "CSV `file` with header file,class labelling your own traces")
 	f.BoolVar(&o.withReference, "with-reference", false, "with --labels: add the reference set to your traces")
 	f.Uint64Var(&o.seed, "seed", 1, "random seed of the reference set, the folds and the forest")
-	f.IntVar(&o.folds, "folds", 5, "cross-validation folds (0 skips cross-validation)")
+	f.StringVar(&o.folds, "folds", "auto", "held-out validation: family (leave one family out), N (N folds grouped by family or file), 0 (none), auto (family with --reference, 5 with --labels alone)")
+	f.IntVar(&o.cvTrees, "cv-trees", cvTrees, "trees in each held-out forest")
 	f.IntVar(&o.trees, "trees", 200, "number of trees in the forest")
-	f.IntVar(&o.perClass, "per-class", 1000, "reference series per class")
+	f.IntVar(&o.perClass, "per-class", 1500, "reference series per class (chaotic entries draw 30% more; see classifier.ReferencePlan)")
 	f.StringVarP(&o.out, "output", "o", "", "model file to write (required)")
 	return c
 }
@@ -90,14 +110,18 @@ func runTrain(e *env, o *trainOptions) error {
 		return usagef("nothing to train on: give --reference or --labels CSV")
 	case o.withReference && o.labels == "":
 		return usagef("--with-reference goes with --labels")
-	case o.folds == 1 || o.folds < 0:
-		return usagef("--folds %d: want 0 (no cross-validation) or at least 2", o.folds)
+	case o.cvTrees < 1:
+		return usagef("--cv-trees %d: want at least 1", o.cvTrees)
 	case o.trees < 1:
 		return usagef("--trees %d: want at least 1", o.trees)
 	case o.perClass < 10:
 		return usagef("--per-class %d: want at least 10", o.perClass)
 	}
 	if err := o.in.validate(); err != nil {
+		return err
+	}
+	folds, err := o.foldCount()
+	if err != nil {
 		return err
 	}
 	if dir := filepath.Dir(o.out); dir != "" {
@@ -108,13 +132,19 @@ func runTrain(e *env, o *trainOptions) error {
 
 	var ds classifier.Dataset
 	var descr []string
+	var lengths []int      // samples of each row's series
+	var snrLabels []string // measurement SNR range of each row
 	if o.labels != "" {
-		lab, err := labelledDataset(e, o)
+		lab, n, err := labelledDataset(e, o)
 		if err != nil {
 			return err
 		}
 		ds = lab
 		descr = append(descr, lab.Description)
+		lengths = append(lengths, n...)
+		for range n {
+			snrLabels = append(snrLabels, benchmarks.SNRRangeOrder[len(benchmarks.SNRRangeOrder)-1])
+		}
 	}
 	if o.reference || o.withReference {
 		fmt.Fprintf(e.stderr, "building the reference set (seed %d)...\n", o.seed)
@@ -124,7 +154,7 @@ func runTrain(e *env, o *trainOptions) error {
 			return err
 		}
 		ropts.Progress = newProgress(e, len(plan), "reference series")
-		ref, _, err := classifier.BuildReference(ropts, features.Options{Seed: o.seed})
+		ref, kept, err := classifier.BuildReference(ropts, features.Options{Seed: o.seed})
 		if err != nil {
 			return err
 		}
@@ -136,22 +166,28 @@ func runTrain(e *env, o *trainOptions) error {
 			ds.Y = append(ds.Y, ref.Y...)
 			ds.Groups = append(ds.Groups, ref.Groups...)
 		}
+		for _, s := range kept {
+			lengths = append(lengths, s.N)
+			snrLabels = append(snrLabels, benchmarks.SNRRange(s.SNR()))
+		}
 	}
 	ds.Description = strings.Join(descr, "; plus ")
 
 	cfg := classifier.Config{Trees: o.trees, Seed: o.seed, Schema: currentSchema()}
-	// The fold forests only estimate accuracy; cvTrees trees do that as
-	// well as the full forest (the out-of-fold accuracy of a forest levels
-	// off long before 100 trees; common practice) at half the cost.
 	cvCfg := cfg
-	cvCfg.Trees = min(o.trees, cvTrees)
-	var cv *classifier.CVResult
+	cvCfg.Trees = min(o.trees, o.cvTrees)
+	var val *classifier.Validation
 	var imp []classifier.Importance
-	if o.folds >= 2 {
-		fmt.Fprintf(e.stderr, "cross-validating (%d folds grouped by system/file)...\n", o.folds)
+	if folds != 0 {
+		what := fmt.Sprintf("%d folds grouped by family or file", folds)
+		method := fmt.Sprintf("%d-fold cross-validation grouped by family or file", folds)
+		if folds == classifier.LeaveOneGroupOut {
+			what, method = "leaving one family out at a time", "leave-one-family-out"
+		}
+		fmt.Fprintf(e.stderr, "validating (%s, %d-tree forests)...\n", what, cvCfg.Trees)
 		rng := rand.New(rand.NewPCG(o.seed, seedStream))
 		sum := map[string]float64{}
-		r, err := classifier.CrossValidateEach(ds, o.folds, cvCfg, func(_ int, m *classifier.Model, test classifier.Dataset) error {
+		r, err := classifier.CrossValidateEach(ds, folds, cvCfg, func(_ int, m *classifier.Model, test classifier.Dataset) error {
 			fi, err := classifier.PermutationImportance(m, test, 2, rng)
 			for _, x := range fi {
 				sum[x.Feature] += x.Drop * float64(test.Rows())
@@ -159,38 +195,86 @@ func runTrain(e *env, o *trainOptions) error {
 			return err
 		})
 		if err != nil {
-			return fmt.Errorf("cross-validation: %w", err)
+			return fmt.Errorf("validation: %w", err)
 		}
-		cv = &r
 		for _, name := range ds.Features {
 			imp = append(imp, classifier.Importance{Feature: name, Drop: sum[name] / float64(ds.Rows())})
 		}
 		sort.SliceStable(imp, func(i, j int) bool { return imp[i].Drop > imp[j].Drop })
+		strata := []classifier.Stratification{
+			{Name: "length", Labels: lengthRanges(lengths), Order: benchmarks.LengthRangeOrder},
+			{Name: "snr", Labels: snrLabels, Order: benchmarks.SNRRangeOrder},
+		}
+		if groups := distinct(ds.Groups); groups <= maxReportedGroups {
+			strata = append([]classifier.Stratification{{Name: "family", Labels: ds.Groups}}, strata...)
+		}
+		v, err := classifier.Validate(r, ds, method, strata...)
+		if err != nil {
+			return fmt.Errorf("validation: %w", err)
+		}
+		val = &v
 	}
 	fmt.Fprintf(e.stderr, "training the final forest on %d series...\n", ds.Rows())
 	m, err := classifier.Train(ds, cfg)
 	if err != nil {
 		return err
 	}
-	if cv != nil {
-		m.CV = &cv.CVSummary
-	}
+	m.Validation = val
 	if err := m.Save(o.out); err != nil {
 		return err
 	}
-	return writeTrainReport(e.stdout, o.out, ds, m, cv, imp)
+	return writeTrainReport(e.stdout, o.out, ds, m, imp)
+}
+
+// maxReportedGroups is the most families or files the per-group breakdown
+// lists (beyond that it would drown the summary).
+const maxReportedGroups = 200
+
+// foldCount resolves --folds to a fold count for CrossValidateEach
+// (classifier.LeaveOneGroupOut for family), or 0 for none.
+func (o *trainOptions) foldCount() (int, error) {
+	switch strings.ToLower(strings.TrimSpace(o.folds)) {
+	case "auto", "":
+		if o.reference || o.withReference {
+			return classifier.LeaveOneGroupOut, nil
+		}
+		return 5, nil
+	case "family", "families":
+		return classifier.LeaveOneGroupOut, nil
+	}
+	k, err := strconv.Atoi(o.folds)
+	if err != nil || k == 1 || k < 0 {
+		return 0, usagef("--folds %q: want family, auto, 0 (no validation) or a fold count of at least 2", o.folds)
+	}
+	return k, nil
+}
+
+func lengthRanges(n []int) []string {
+	out := make([]string, len(n))
+	for i, v := range n {
+		out[i] = benchmarks.LengthRange(v)
+	}
+	return out
+}
+
+func distinct(s []string) int {
+	seen := map[string]bool{}
+	for _, v := range s {
+		seen[v] = true
+	}
+	return len(seen)
 }
 
 // labelledDataset reads the labels file and measures every trace it names.
-func labelledDataset(e *env, o *trainOptions) (classifier.Dataset, error) {
+func labelledDataset(e *env, o *trainOptions) (classifier.Dataset, []int, error) {
 	f, err := os.Open(o.labels)
 	if err != nil {
-		return classifier.Dataset{}, fmt.Errorf("%s: %w", o.labels, err)
+		return classifier.Dataset{}, nil, fmt.Errorf("%s: %w", o.labels, err)
 	}
 	defer f.Close()
 	labels, err := classifier.ReadLabels(f, o.labels)
 	if err != nil {
-		return classifier.Dataset{}, err
+		return classifier.Dataset{}, nil, err
 	}
 	base := filepath.Dir(o.labels)
 	paths := make([]string, len(labels))
@@ -200,11 +284,12 @@ func labelledDataset(e *env, o *trainOptions) (classifier.Dataset, error) {
 			p = filepath.Join(base, p)
 		}
 		if _, err := os.Stat(p); err != nil {
-			return classifier.Dataset{}, fmt.Errorf("%s line %d: %s: no such file (paths are relative to the labels file)", o.labels, l.Line, l.Path)
+			return classifier.Dataset{}, nil, fmt.Errorf("%s line %d: %s: no such file (paths are relative to the labels file)", o.labels, l.Line, l.Path)
 		}
 		paths[i] = p
 	}
 	ds := classifier.Dataset{Features: features.Names()}
+	var lengths []int
 	err = batch(e, paths,
 		func(_ int, p string) (features.Vector, error) {
 			tr, err := readTrace(e, p, &o.in)
@@ -221,10 +306,11 @@ func labelledDataset(e *env, o *trainOptions) (classifier.Dataset, error) {
 			ds.X = append(ds.X, v.Values)
 			ds.Y = append(ds.Y, labels[i].Class)
 			ds.Groups = append(ds.Groups, p)
+			lengths = append(lengths, v.N)
 			return nil
 		})
 	if err != nil {
-		return classifier.Dataset{}, fmt.Errorf("%s: some labelled traces could not be read; fix or remove them (errors above)", o.labels)
+		return classifier.Dataset{}, nil, fmt.Errorf("%s: some labelled traces could not be read; fix or remove them (errors above)", o.labels)
 	}
 	count := map[string]int{}
 	for _, y := range ds.Y {
@@ -237,20 +323,49 @@ func labelledDataset(e *env, o *trainOptions) (classifier.Dataset, error) {
 		}
 	}
 	ds.Description = fmt.Sprintf("%d labelled traces from %s (%s)", ds.Rows(), o.labels, strings.Join(parts, ", "))
-	return ds, nil
+	return ds, lengths, nil
 }
 
-func writeTrainReport(w io.Writer, out string, ds classifier.Dataset, m *classifier.Model, cv *classifier.CVResult, imp []classifier.Importance) error {
+func writeTrainReport(w io.Writer, out string, ds classifier.Dataset, m *classifier.Model, imp []classifier.Importance) error {
 	fmt.Fprintf(w, "model written to %s\n", out)
 	fmt.Fprintf(w, "training set: %s\n", ds.Description)
 	fmt.Fprintf(w, "forest: %d trees, %d nodes, seed %d, feature schema v%d %s\n", m.NumTrees(), m.NumNodes(), m.Config.Seed, m.Config.Schema.Version, m.Config.Schema.Hash)
-	fmt.Fprintf(w, "out-of-bag accuracy: %s\n", human(m.OOB.Accuracy))
-	if cv == nil {
+	if d := m.Training.Dropped; len(d) > 0 {
+		fmt.Fprintf(w, "left out of the model (missing in every training series, so classify never asks for them): %s\n", strings.Join(d, ", "))
+	}
+	fmt.Fprintf(w, "out-of-bag accuracy: %s (series of the families seen in training; the held-out figures below are the ones to expect on new kinds of dynamics)\n", human(m.OOB.Accuracy))
+	v := m.Validation
+	if v == nil {
 		return nil
 	}
-	ev := cv.Evaluation
-	fmt.Fprintf(w, "\n%d-fold cross-validation, grouped (no system or file in both training and test folds):\n", cv.Folds)
-	fmt.Fprintf(w, "accuracy %.4f over %d series; %d flagged undetermined (accuracy on the rest %.4f)\n\n", ev.Accuracy, ev.Rows, ev.Undetermined, ev.DeterminedAccuracy)
+	if err := writeValidation(w, v); err != nil {
+		return err
+	}
+	if len(imp) > 0 {
+		fmt.Fprintf(w, "\npermutation importance on the held-out rows (drop in accuracy when the feature is shuffled):\n")
+		t := newTable(w)
+		t.row("FEATURE", "DROP")
+		for i, x := range imp {
+			if i >= 15 {
+				break
+			}
+			t.row(x.Feature, fmt.Sprintf("%.4f", x.Drop))
+		}
+		if err := t.flush(); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// writeValidation prints a held-out validation: headline, confusion matrix,
+// breakdowns and calibration.
+func writeValidation(w io.Writer, v *classifier.Validation) error {
+	ev, o := v.Matrix, v.Overall
+	fmt.Fprintf(w, "\n%s (%d-tree forests; no series of a held-out family or file is in its forest's training set):\n", v.Method, v.Trees)
+	fmt.Fprintf(w, "accuracy %.4f over %d series; chaos vs noise %.4f (%d chaotic or stochastic series not taken for the other); %d undetermined (accuracy on the rest %.4f)\n",
+		o.Accuracy, o.Rows, o.ChaosNoise, o.ChaosNoiseRows, o.Undetermined, o.DeterminedAccuracy)
+	fmt.Fprintf(w, "calibration: Brier score %.4f, expected calibration error %.4f\n\n", v.Calibration.Brier, v.Calibration.ECE)
 	t := newTable(w)
 	head := []string{"TRUE \\ PREDICTED"}
 	head = append(head, ev.Classes...)
@@ -272,46 +387,29 @@ func writeTrainReport(w io.Writer, out string, ds classifier.Dataset, m *classif
 	if err := t.flush(); err != nil {
 		return err
 	}
-	if len(ds.Groups) > 0 {
-		type acc struct{ good, n int }
-		by := map[string]*acc{}
-		var names []string
-		for i, g := range ds.Groups {
-			if by[g] == nil {
-				by[g] = &acc{}
-				names = append(names, g)
-			}
-			by[g].n++
-			if ev.Classes[cv.Predicted[i]] == ds.Y[i] {
-				by[g].good++
-			}
-		}
-		if len(names) <= 60 {
-			sort.Strings(names)
-			fmt.Fprintf(w, "\naccuracy per system or file when it was held out:\n")
-			t = newTable(w)
-			t.row("GROUP", "SERIES", "ACCURACY")
-			for _, g := range names {
-				t.row(g, fmt.Sprint(by[g].n), fmt.Sprintf("%.3f", float64(by[g].good)/float64(by[g].n)))
-			}
-			if err := t.flush(); err != nil {
-				return err
-			}
-		}
-	}
-	if len(imp) > 0 {
-		fmt.Fprintf(w, "\npermutation importance on the held-out folds (drop in accuracy when the feature is shuffled):\n")
+	for _, st := range v.Strata {
+		fmt.Fprintf(w, "\nby %s:\n", st.Name)
 		t = newTable(w)
-		t.row("FEATURE", "DROP")
-		for i, x := range imp {
-			if i >= 15 {
-				break
+		t.row(strings.ToUpper(st.Name), "CLASSES", "SERIES", "ACCURACY", "CHAOS VS NOISE", "UNDETERMINED")
+		for _, sc := range st.Scores {
+			cn := "—"
+			if sc.ChaosNoiseRows > 0 {
+				cn = fmt.Sprintf("%.3f", sc.ChaosNoise)
 			}
-			t.row(x.Feature, fmt.Sprintf("%.4f", x.Drop))
+			t.row(sc.Label, strings.Join(sc.Classes, "+"), fmt.Sprint(sc.Rows), fmt.Sprintf("%.3f", sc.Accuracy), cn, fmt.Sprint(sc.Undetermined))
 		}
 		if err := t.flush(); err != nil {
 			return err
 		}
 	}
-	return nil
+	fmt.Fprintf(w, "\nreliability (top-class probability against the accuracy it delivers):\n")
+	t = newTable(w)
+	t.row("PROBABILITY", "SERIES", "MEAN PROBABILITY", "ACCURACY")
+	for _, b := range v.Calibration.Bins {
+		if b.Rows == 0 {
+			continue
+		}
+		t.row(fmt.Sprintf("%.1f–%.1f", b.Lo, b.Hi), fmt.Sprint(b.Rows), fmt.Sprintf("%.3f", b.Confidence), fmt.Sprintf("%.3f", b.Accuracy))
+	}
+	return t.flush()
 }

@@ -9,6 +9,15 @@
 //
 // All measures are invariant under x → a·x + b with a > 0. Under negation
 // (a < 0) the skewness changes sign; every other measure is unchanged.
+//
+// Ties: equal samples give zero increments, which count like any other
+// value; there is no tie rule to choose. On a recorder's grid of step q the
+// increments take values on the same grid, so the moments and the lag-1
+// autocorrelation keep their meaning (an i.i.d. series stays i.i.d. when
+// quantised: Lag1 → −0.5 still), while the Kolmogorov–Smirnov distance
+// measures the lattice as well as the shape (i.i.d. noise recorded with 16
+// levels over ±3 sd: 0.064 instead of 0.012, measured at n = 5000).
+// features.Extract dithers such a series over its grid cells first.
 package increments
 
 import (

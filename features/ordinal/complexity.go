@@ -42,6 +42,9 @@ type ComplexityResult struct {
 // The caller must supply at least (d−1)·τ + 1 finite samples that are not
 // all equal; meaningful values need W ≫ d! windows. C_JS is invariant under
 // x → a·x + b for any a ≠ 0. Cost O(n·d²).
+//
+// Ties: as Patterns, by Options.Ties; with TiesSkip i.i.d. data keep
+// C_JS → 0.
 func Complexity(x []float64, opts Options) (ComplexityResult, error) {
 	dist, err := Patterns(x, opts)
 	if err != nil {

@@ -11,6 +11,16 @@
 // number of missing patterns are unchanged, the pattern distribution is
 // reversed.
 //
+// Ties: two equal values in a window have no order. Continuous data have
+// none; quantised, clipped or genuinely discrete series have many, and a
+// fixed tie rule then favours some patterns and reads the grid as structure
+// (Zunino et al., Phys. Lett. A 381 (2017) 1883). Options.Ties chooses the
+// rule: TiesStable (the default) ranks the earlier of two equal values as
+// the smaller, so every window gets one pattern; TiesSkip counts only the
+// windows without equal values. features.Extract dithers a quantised trace
+// before these measures see it, so there they meet ties only in genuinely
+// discrete series (fewer than five levels, or exactly periodic).
+//
 // Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102.
 package ordinal
 
@@ -32,6 +42,9 @@ var (
 	ErrNonFinite = errors.New("series holds NaN or Inf")
 	// ErrBadOption means an option lies outside its documented domain.
 	ErrBadOption = errors.New("invalid option")
+	// ErrAllTied means every window holds equal values, so TiesSkip leaves
+	// nothing to count.
+	ErrAllTied = errors.New("every window holds equal values")
 )
 
 // MinOrder and MaxOrder bound the embedding order d.
@@ -53,7 +66,33 @@ type Options struct {
 	Order int
 	// Delay is the embedding delay τ in samples, ≥ 1. 0 means 1.
 	Delay int
+	// Ties is the rule for windows holding equal values; the zero value is
+	// TiesStable.
+	Ties Ties
 }
+
+// Ties is the rule for a window holding equal values.
+type Ties int
+
+const (
+	// TiesStable ranks the earlier of two equal values as the smaller (a
+	// stable ranking, common practice), so every window gets exactly one
+	// pattern; a window of equal values counts as strictly increasing. On a
+	// coarse grid this favours rising patterns: i.i.d. noise recorded with
+	// 16 levels over ±3 sd loses about 0.01 of its normalised entropy at
+	// order 4 (measured), far more than the finite-sample bias.
+	TiesStable Ties = iota
+	// TiesSkip counts only the windows without equal values and leaves the
+	// others out of Windows (Distribution.Skipped counts them). A monotone
+	// quantiser never creates a strict order the unquantised series did not
+	// have, so every pattern counted was really there and forbidden patterns
+	// stay forbidden. For an i.i.d. series all orders of distinct values are
+	// equally likely given that the values are distinct (exchangeability),
+	// so the tie-free windows stay uniformly distributed and H_S → 1
+	// (derived). The price is fewer windows: on a coarse grid or a slowly
+	// varying series most windows hold a tie.
+	TiesSkip
+)
 
 // resolve returns the effective order and delay.
 func (o Options) resolve() (int, int, error) {
@@ -69,6 +108,9 @@ func (o Options) resolve() (int, int, error) {
 	}
 	if tau < 1 {
 		return 0, 0, fmt.Errorf("%w: delay %d, want ≥ 1", ErrBadOption, o.Delay)
+	}
+	if o.Ties != TiesStable && o.Ties != TiesSkip {
+		return 0, 0, fmt.Errorf("%w: tie rule %d", ErrBadOption, o.Ties)
 	}
 	return d, tau, nil
 }

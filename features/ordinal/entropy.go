@@ -35,6 +35,10 @@ type EntropyResult struct {
 // all equal; meaningful values need W ≫ d! windows. H_S is invariant under
 // x → a·x + b for any a ≠ 0 (negation mirrors the patterns, which permutes
 // the probabilities). Cost O(n·d²).
+//
+// Ties: as Patterns, by Options.Ties. With TiesStable a coarse grid lowers
+// H_S of noise (see TiesStable); with TiesSkip i.i.d. data keep H_S → 1 and
+// BiasIID is computed from the windows kept.
 func Entropy(x []float64, opts Options) (EntropyResult, error) {
 	dist, err := Patterns(x, opts)
 	if err != nil {

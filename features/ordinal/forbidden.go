@@ -41,6 +41,13 @@ type MissingResult struct {
 // The caller must supply at least (d−1)·τ + 1 finite samples that are not
 // all equal. Invariant under x → a·x + b with a ≠ 0 (for a < 0 the missing
 // codes are mirrored, c → d!−1−c). Cost O(n·d²).
+//
+// Ties: as Patterns, by Options.Ties. With TiesSkip a pattern counts as seen
+// only in a window without equal values, so a quantised chaotic series keeps
+// every pattern its unquantised series never shows missing (a monotone
+// quantiser creates no strict order); Windows and ExpectedIID then refer to
+// the windows kept. TiesStable can fill a forbidden pattern with a tied
+// window (a run of equal values reads as rising).
 func Missing(x []float64, opts Options) (MissingResult, error) {
 	dist, err := Patterns(x, opts)
 	if err != nil {

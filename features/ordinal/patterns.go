@@ -9,18 +9,27 @@ import "fmt"
 // permutation of ranks, encoded as its Lehmer code
 // code = Σ_{j=0}^{d−2} c_j·(d−1−j)!, c_j = #{k > j : x_{i+kτ} < x_{i+jτ}},
 // an integer in [0, d!). Code 0 is the strictly increasing window, d!−1 the
-// strictly decreasing one. Ties are ranked by order of appearance (the
-// earlier of two equal values counts as the smaller; a stable ranking,
-// common practice), so every window gets exactly one pattern.
+// strictly decreasing one.
+//
+// Ties: with TiesStable (the default) equal values are ranked by order of
+// appearance (the earlier counts as the smaller), so every window gets
+// exactly one pattern; with TiesSkip a window holding equal values is not
+// counted (see Ties).
 type Distribution struct {
 	Order   int   // embedding order d
 	Delay   int   // embedding delay τ
 	Counts  []int // occurrences of each pattern, indexed by Lehmer code; len d!
-	Windows int   // number of windows counted, n − (d−1)·τ
+	Windows int   // number of windows counted: n − (d−1)·τ, less Skipped
 	// Ties is the number of windows holding at least one pair of equal
 	// values. A large share (quantised read-outs, clipped traces) biases
-	// the distribution towards the patterns the tie rule favours.
+	// the distribution towards the patterns the tie rule favours
+	// (TiesStable) or leaves few windows (TiesSkip).
 	Ties int
+	// Skipped is the number of windows left out by TiesSkip (equal to Ties
+	// then, 0 with TiesStable).
+	Skipped int
+	// TieRule is the rule the distribution was counted with.
+	TieRule Ties
 }
 
 // Patterns returns the ordinal-pattern distribution of x (Bandt & Pompe,
@@ -28,7 +37,8 @@ type Distribution struct {
 // comparisons without allocation; the cost is O(n·d²).
 //
 // The caller must supply at least (d−1)·τ + 1 finite samples that are not
-// all equal.
+// all equal, and with TiesSkip at least one window without equal values
+// (else ErrAllTied).
 func Patterns(x []float64, opts Options) (*Distribution, error) {
 	d, tau, err := opts.resolve()
 	if err != nil {
@@ -44,6 +54,7 @@ func Patterns(x []float64, opts Options) (*Distribution, error) {
 	w := len(x) - span
 	counts := make([]int, factorial(d))
 	ties := 0
+	skip := opts.Ties == TiesSkip
 	for i := 0; i < w; i++ {
 		win := x[i : i+span+1]
 		code := 0
@@ -58,10 +69,21 @@ func Patterns(x []float64, opts Options) (*Distribution, error) {
 			}
 			code = code*(d-j) + c
 		}
-		counts[code]++
 		ties += tie
+		if skip && tie != 0 {
+			continue
+		}
+		counts[code]++
 	}
-	return &Distribution{Order: d, Delay: tau, Counts: counts, Windows: w, Ties: ties}, nil
+	dist := &Distribution{Order: d, Delay: tau, Counts: counts, Windows: w, Ties: ties, TieRule: opts.Ties}
+	if skip {
+		dist.Windows -= ties
+		dist.Skipped = ties
+		if dist.Windows == 0 {
+			return nil, fmt.Errorf("ordinal patterns: %w (%d windows of order %d, delay %d)", ErrAllTied, w, d, tau)
+		}
+	}
+	return dist, nil
 }
 
 // Probabilities returns the relative frequency of each pattern, indexed by

@@ -45,3 +45,7 @@ func BenchmarkACF(b *testing.B) {
 func BenchmarkDecayTime(b *testing.B) {
 	benchSizes(b, func(x []float64) error { _, err := DecayTime(x, DecayOptions{}); return err })
 }
+
+func BenchmarkLines(b *testing.B) {
+	benchSizes(b, func(x []float64) error { _, err := Lines(x, LinesOptions{}); return err })
+}

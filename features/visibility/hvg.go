@@ -15,6 +15,14 @@ package visibility
 // Successors) this is the directed HVG of Lacasa et al., Eur. Phys. J. B 85
 // (2012) 217.
 //
+// Ties: equal heights block. Two equal samples see each other only when
+// every sample between them is lower, and a sample between a and b as high
+// as the lower of the two hides them from each other; on a plateau of equal
+// samples each sees only its neighbours. The published i.i.d. results
+// (mean degree 4, λ = ln 3/2) assume distinct values: i.i.d. noise recorded
+// with 16 levels over ±3 sd gives a mean degree of 3.42 and λ ≈ 0.57
+// (measured, n = 5000). features.Extract dithers such a series first.
+//
 // x must be finite (ErrNonFinite) and non-empty (ErrEmpty). Options.MaxEdges
 // is never reached in practice (the HVG has < 2n edges) but is honoured.
 func Horizontal(x []float64, opts Options) (*Graph, error) {

@@ -49,6 +49,14 @@ import "math"
 // lines), so a trended series gives the graph of the detrended one; only the
 // work differs.
 //
+// Ties: a sample exactly on the line of sight blocks it, so collinear
+// samples and equal heights on a plateau see only their neighbours, and of
+// several samples sharing the maximum of a segment none sees past the next.
+// Samples piled at a recorder's rail therefore break the hubs that the
+// highest samples would otherwise be (measured: average path length /ln n
+// of i.i.d. noise 0.72, with 13% of the samples clipped at each rail 15.7,
+// n = 5000). features.Extract dithers a quantised series first.
+//
 // x must be finite (ErrNonFinite) and non-empty (ErrEmpty).
 func Natural(x []float64, opts Options) (*Graph, error) {
 	if err := checkSeries(x, "natural visibility"); err != nil {

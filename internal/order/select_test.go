@@ -1,0 +1,36 @@
+package order
+
+import (
+	"math"
+	"math/rand/v2"
+	"slices"
+	"testing"
+)
+
+// TestSelectMatchesSort: Select returns the value sort.Float64s puts at
+// rank k (the standard library as the reference) and partitions around it.
+func TestSelectMatchesSort(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	for _, n := range []int{1, 2, 3, 10, 101, 1000} {
+		for trial := 0; trial < 20; trial++ {
+			x := make([]float64, n)
+			for i := range x {
+				x[i] = math.Round(10 * rng.NormFloat64()) // ties on purpose
+			}
+			s := slices.Clone(x)
+			slices.Sort(s)
+			k := rng.IntN(n)
+			if got := Select(x, k); got != s[k] {
+				t.Fatalf("n=%d k=%d: %v, want %v", n, k, got, s[k])
+			}
+			for i := range x {
+				if (i < k && x[i] > x[k]) || (i > k && x[i] < x[k]) {
+					t.Fatalf("n=%d k=%d: not partitioned at %d", n, k, i)
+				}
+			}
+		}
+	}
+	if v := Select([]float64{1, 2}, 2); !math.IsNaN(v) {
+		t.Errorf("k out of range: %v, want NaN", v)
+	}
+}
