@@ -147,8 +147,13 @@ func CrossValidateEach(ds Dataset, k int, cfg Config, each func(fold int, m *Mod
 		}
 		res.FoldAccuracy[f] = float64(good) / float64(len(testIdx))
 		if each != nil {
-			if err := each(f, m, test); err != nil {
-				return CVResult{}, fmt.Errorf("cross-validate: fold %d: %w", f, err)
+			// A fold forest knows only the classes of its training rows
+			// (a class with one group is absent when that group is held
+			// out); each gets the held-out rows of known classes.
+			if known := test.knownClasses(m.Classes); len(known.X) > 0 {
+				if err := each(f, m, known); err != nil {
+					return CVResult{}, fmt.Errorf("cross-validate: fold %d: %w", f, err)
+				}
 			}
 		}
 	}
@@ -261,4 +266,19 @@ func assignFolds(ds Dataset, y []int, nClass, k int, seed uint64) ([]int, error)
 		}
 	}
 	return fold, nil
+}
+
+// knownClasses returns the rows of ds whose label is one of classes
+// (sorted).
+func (ds Dataset) knownClasses(classes []string) Dataset {
+	var idx []int
+	for i, lab := range ds.Y {
+		if _, ok := slices.BinarySearch(classes, lab); ok {
+			idx = append(idx, i)
+		}
+	}
+	if len(idx) == len(ds.Y) {
+		return ds
+	}
+	return ds.Subset(idx)
 }

@@ -6,6 +6,10 @@ import (
 	"fmt"
 	"io"
 	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"tracesift/internal/echo"
 )
 
 // Classes are the labels a training row may carry.
@@ -26,8 +30,19 @@ type Label struct {
 // line. Blank lines and lines starting with '#' are skipped. Classes must be
 // chaotic, regular or stochastic; a duplicate path, an unknown class or a
 // malformed row is an error naming the file and line. name labels errors.
+// A file whose first 4 KiB look binary (see echo.Binary) is refused as
+// such, and file content echoed in a message is cut to about 60
+// characters.
 func ReadLabels(r io.Reader, name string) ([]Label, error) {
-	sc := bufio.NewScanner(r)
+	br := bufio.NewReaderSize(r, 64<<10)
+	block, err := br.Peek(labelsSniffLen)
+	if err != nil && err != io.EOF && err != bufio.ErrBufferFull {
+		return nil, fmt.Errorf("%s: %w: %v", name, ErrLabels, err)
+	}
+	if echo.Binary(block, false) {
+		return nil, fmt.Errorf("%s: %w: looks binary (not delimited text); want CSV text with the header \"file,class\"", name, ErrLabels)
+	}
+	sc := bufio.NewScanner(br)
 	sc.Buffer(make([]byte, 64<<10), 1<<20)
 	var out []Label
 	seen := map[string]int{}
@@ -40,7 +55,7 @@ func ReadLabels(r io.Reader, name string) ([]Label, error) {
 		fields := splitLabelRow(text)
 		if !header {
 			if len(fields) != 2 || !(strings.EqualFold(fields[0], "file") || strings.EqualFold(fields[0], "path")) || !strings.EqualFold(fields[1], "class") {
-				return nil, fmt.Errorf("%s line %d: %w: want the header \"file,class\", got %q", name, line, ErrLabels, text)
+				return nil, fmt.Errorf("%s line %d: %w: want the header \"file,class\", got %s", name, line, ErrLabels, echo.Quote(text))
 			}
 			header = true
 			continue
@@ -53,10 +68,10 @@ func ReadLabels(r io.Reader, name string) ([]Label, error) {
 			return nil, fmt.Errorf("%s line %d: %w: empty file name", name, line, ErrLabels)
 		}
 		if !isClass(class) {
-			return nil, fmt.Errorf("%s line %d: %w: unknown class %q; valid classes: %s", name, line, ErrLabels, fields[1], strings.Join(Classes, ", "))
+			return nil, fmt.Errorf("%s line %d: %w: unknown class %s; valid classes: %s", name, line, ErrLabels, echo.Quote(fields[1]), strings.Join(Classes, ", "))
 		}
 		if prev, dup := seen[path]; dup {
-			return nil, fmt.Errorf("%s line %d: %w: %s already labelled on line %d", name, line, ErrLabels, path, prev)
+			return nil, fmt.Errorf("%s line %d: %w: %s already labelled on line %d", name, line, ErrLabels, echoPath(path), prev)
 		}
 		seen[path] = line
 		out = append(out, Label{Path: path, Class: class, Line: line})
@@ -103,4 +118,17 @@ func splitLabelRow(s string) []string {
 		}
 	}
 	return append(out, strings.TrimSpace(b.String()))
+}
+
+// labelsSniffLen is the size of the first block of a labels file that
+// echo.Binary examines.
+const labelsSniffLen = 4096
+
+// echoPath renders a path for a message: as it is (cut by echo.Clip) when it is
+// printable UTF-8, else quoted (by echo.Quote).
+func echoPath(s string) string {
+	if !utf8.ValidString(s) || strings.IndexFunc(s, func(r rune) bool { return !unicode.IsPrint(r) }) >= 0 {
+		return echo.Quote(s)
+	}
+	return echo.Clip(s)
 }

@@ -12,7 +12,10 @@ import (
 	"os"
 	"slices"
 
+	"tracesift/features"
 	"tracesift/internal/atomicfile"
+
+	"tracesift/internal/echo"
 )
 
 // Model file layout (all integers little-endian or unsigned varints as
@@ -404,16 +407,44 @@ func (r *byteReader) tree(t *tree, p, k int) error {
 }
 
 // CheckSchema returns an error wrapping ErrSchemaMismatch, naming the model
-// file, unless the model was trained on the feature schema want.
+// file, unless the model was trained on the feature schema want. When want
+// is the schema of this program's feature catalogue (features.SchemaVersion
+// and features.SchemaHash), every feature the model names must also be one
+// the catalogue computes: a header can carry the right schema and checksum
+// and still name another feature (a model made by another build, or
+// edited), and prediction would then replace that feature by its training
+// median on every trace. Features the model dropped (Training.Dropped) are
+// not asked for and need not be computable.
 func (m *Model) CheckSchema(want Schema) error {
 	got := m.Config.Schema
-	if got == want {
-		return nil
-	}
 	src := m.Source
 	if src == "" {
 		src = "(in memory)"
 	}
-	return fmt.Errorf("model %s: trained on feature schema v%d (hash %q) but this program computes v%d (hash %q); retrain the model: %w",
-		src, got.Version, got.Hash, want.Version, want.Hash, ErrSchemaMismatch)
+	if got != want {
+		return fmt.Errorf("model %s: trained on feature schema v%d (hash %q) but this program computes v%d (hash %q); retrain the model: %w",
+			src, got.Version, got.Hash, want.Version, want.Hash, ErrSchemaMismatch)
+	}
+	if want == (Schema{Version: features.SchemaVersion, Hash: features.SchemaHash()}) {
+		return m.checkFeatures(src, features.Names())
+	}
+	return nil
 }
+
+// checkFeatures fails with ErrSchemaMismatch when the model names a feature
+// that is not among known, naming the first such feature.
+func (m *Model) checkFeatures(src string, known []string) error {
+	for _, f := range m.Features {
+		if !slices.Contains(known, f) {
+			return schemaError(fmt.Sprintf("model %s: names feature %s that this tracesift does not compute (model made by a different version?)", src, echo.Quote(f)))
+		}
+	}
+	return nil
+}
+
+// schemaError is a schema mismatch whose message says it all; it matches
+// ErrSchemaMismatch under errors.Is.
+type schemaError string
+
+func (e schemaError) Error() string { return string(e) }
+func (e schemaError) Unwrap() error { return ErrSchemaMismatch }

@@ -4,12 +4,17 @@ import (
 	"bytes"
 	"crypto/sha256"
 	"encoding/binary"
+	"encoding/json"
 	"errors"
+	"math"
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
+
+	"tracesift/features"
 )
 
 func smallModel(t testing.TB) (*Model, Dataset) {
@@ -159,6 +164,107 @@ func TestSchemaCheck(t *testing.T) {
 		if !errors.Is(err, ErrSchemaMismatch) || !strings.Contains(err.Error(), path) {
 			t.Fatalf("err %v, want ErrSchemaMismatch naming %s", err, path)
 		}
+	}
+}
+
+// rewriteHeader returns the model file b with its JSON header decoded,
+// changed by edit and encoded again, the header length and the SHA-256
+// checksum recomputed as Write computes them: a file that passes every
+// check of Read, as one written by another build would.
+func rewriteHeader(t *testing.T, b []byte, edit func(*Model)) []byte {
+	t.Helper()
+	off := len(magic) + 2
+	hlen, n := binary.Uvarint(b[off:])
+	if n <= 0 {
+		t.Fatal("bad header length")
+	}
+	hdr := b[off+n : off+n+int(hlen)]
+	rest := b[off+n+int(hlen) : len(b)-sha256.Size] // trees and novelty index
+	var m Model
+	if err := json.Unmarshal(hdr, &m); err != nil {
+		t.Fatal(err)
+	}
+	edit(&m)
+	hdr, err := json.Marshal(&m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := append([]byte(nil), b[:off]...)
+	out = binary.AppendUvarint(out, uint64(len(hdr)))
+	out = append(out, hdr...)
+	out = append(out, rest...)
+	sum := sha256.Sum256(out)
+	return append(out, sum[:]...)
+}
+
+// TestUnknownFeature: a model whose header names a feature this program's
+// catalogue does not compute is refused by CheckSchema even though its
+// schema and checksum are right (before, prediction replaced the feature by
+// its training median on every trace, with a "not computable" note); a
+// model that dropped a feature of the catalogue is accepted.
+func TestUnknownFeature(t *testing.T) {
+	current := Schema{Version: features.SchemaVersion, Hash: features.SchemaHash()}
+	names := features.Names()[:6]
+	ds := noisy(200, 6, 3, 21)
+	ds.Features = names
+	for _, x := range ds.X {
+		x[5] = math.NaN() // missing in every row: Train drops it
+	}
+	m, err := Train(ds, Config{Trees: 15, Seed: 4, Schema: current})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !slices.Equal(m.Training.Dropped, names[5:]) || !slices.Equal(m.Features, names[:5]) {
+		t.Fatalf("features %v, dropped %v", m.Features, m.Training.Dropped)
+	}
+	good := modelBytes(t, m)
+	rename := func(j int, to string) func(*Model) {
+		return func(m *Model) { m.Features[j] = to }
+	}
+	dir := t.TempDir()
+	cases := []struct {
+		name string
+		data []byte
+		want string // "" for accepted
+	}{
+		{"as trained, one feature dropped", good, ""},
+		{"renamed feature", rewriteHeader(t, good, rename(2, "foo")),
+			`model DIR/renamed_feature.tsf: names feature "foo" that this tracesift does not compute (model made by a different version?)`},
+		// The dropped feature is not asked for, so it may be anything.
+		{"unknown dropped feature", rewriteHeader(t, good, func(m *Model) { m.Training.Dropped = []string{"bar"} }), ""},
+		{"long name shortened", rewriteHeader(t, good, rename(0, strings.Repeat("ab", 40))),
+			`model DIR/long_name_shortened.tsf: names feature "` + strings.Repeat("ab", 29) + `"… that this tracesift does not compute (model made by a different version?)`},
+	}
+	for _, c := range cases {
+		path := filepath.Join(dir, strings.ReplaceAll(c.name, " ", "_")+".tsf")
+		if err := os.WriteFile(path, c.data, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		lm, err := Load(path)
+		if err != nil {
+			t.Fatalf("%s: load: %v", c.name, err)
+		}
+		err = lm.CheckSchema(current)
+		want := strings.ReplaceAll(c.want, "DIR", dir)
+		switch {
+		case want == "" && err != nil:
+			t.Errorf("%s: rejected: %v", c.name, err)
+		case want != "" && (err == nil || err.Error() != want || !errors.Is(err, ErrSchemaMismatch)):
+			t.Errorf("%s: error\n got %v\nwant %s (ErrSchemaMismatch)", c.name, err, want)
+		}
+	}
+	// The feature names are only checked against this program's catalogue;
+	// for another schema the classifier cannot know the names.
+	other := Schema{Version: 3, Hash: "abc123"}
+	lm, err := Read(bytes.NewReader(rewriteHeader(t, good, func(m *Model) {
+		m.Features[2] = "foo"
+		m.Config.Schema = other
+	})))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := lm.CheckSchema(other); err != nil {
+		t.Fatalf("other schema: %v", err)
 	}
 }
 

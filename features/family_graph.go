@@ -35,7 +35,7 @@ func computeGraph(z []float64, o Options, s *sink) {
 	hvgNames := []string{"hvg_mean_degree", "hvg_lambda", "hvg_clustering_mean", "hvg_degree_entropy", "hvg_irreversibility"}
 	nvgNames := []string{"nvg_mean_degree", "nvg_gamma", "nvg_clustering_mean", "nvg_modularity", "nvg_assortativity", "nvg_degree_entropy", "nvg_path_norm", "nvg_dimension"}
 	if s.wants(hvgNames...) {
-		if g, err := visibility.Horizontal(z, visibility.Options{}); err != nil {
+		if g, err := visibility.Horizontal(z, visibility.Options{MaxEdges: o.MaxEdges}); err != nil {
 			s.missErr(fmt.Errorf("HVG: %w", err), hvgNames...)
 		} else {
 			m, err := visibility.Measure(g, visibility.MeasureOptions{NoPaths: true, NoCommunities: true, Seed: o.Seed})
@@ -51,7 +51,7 @@ func computeGraph(z []float64, o Options, s *sink) {
 		}
 	}
 	if s.wants(nvgNames...) {
-		g, err := visibility.Natural(z, visibility.Options{})
+		g, err := visibility.Natural(z, visibility.Options{MaxEdges: o.MaxEdges})
 		if err != nil {
 			s.missErr(fmt.Errorf("NVG: %w", err), nvgNames...)
 			return

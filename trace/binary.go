@@ -26,7 +26,7 @@ func readRaw(r io.Reader, name string, size int64, cfg config) (Trace, error) {
 			Detail: fmt.Sprintf("%q: raw %s input has a single column 1", want, cfg.format)}
 	}
 	tooLarge := func(n int64) error {
-		return &Error{File: name, Err: ErrTooLarge,
+		return &Error{File: name, Err: ErrTooLarge, Count: int(min(n, math.MaxInt)), Limit: cfg.maxN,
 			Detail: fmt.Sprintf("%d or more samples, more than the MaxSamples limit %d", n, cfg.maxN)}
 	}
 	capHint := 0

@@ -9,8 +9,10 @@
 // may be UTF-8 (with or without byte-order mark, LF, CRLF or lone-CR line
 // ends) or UTF-16 with a byte-order mark. Raw binary (FormatF32LE,
 // FormatF64LE: headerless little-endian IEEE-754 samples, one channel) is
-// only read when asked for; text input containing NUL bytes is reported as
-// "looks binary".
+// only read when asked for: text input whose first 4 KiB hold a NUL byte
+// or more than 30% control bytes and invalid UTF-8 (raw samples, other
+// binary files, UTF-16 without byte-order mark) fails with ErrBinary, as
+// does a NUL byte in a line before the table.
 //
 // # Text layout detection
 //
@@ -48,7 +50,9 @@
 //   - A delimiter at the end of every row ("1;2;") is a line terminator,
 //     not an empty column, unless the header names that last column.
 //   - After the table starts, every non-comment line must have the
-//     table's field count (else ErrRagged) and numbers in the columns
+//     table's field count (else ErrRagged, whose message names the other
+//     delimiter when the line is a numeric row of the table's width under
+//     another of ',', ';', tab and spaces) and numbers in the columns
 //     used (else ErrNotNumeric). Other columns are counted, not parsed.
 //     Text lines at the very end whose first field starts with a letter
 //     ("END", "Total: 1000") are a footer: ignored, with a warning.
@@ -84,5 +88,8 @@
 // with ErrConstant, and fewer than Options.MinLength samples with
 // ErrTooShort. Every error is an *Error with a one-line message naming the
 // source, the line (or raw sample) and the column where they apply, and
-// an Err sentinel for errors.Is.
+// an Err sentinel for errors.Is. Content of the file echoed in a message
+// is quoted and cut to about 60 characters. The numbers behind ErrTooShort
+// and ErrTooLarge are in Error.Count and Error.Limit, for callers that add
+// their own advice.
 package trace

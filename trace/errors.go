@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
+
+	"tracesift/internal/echo"
 )
 
 // Sentinel errors. Every error returned by Read and ReadFile for bad input
@@ -19,8 +21,13 @@ var (
 	// numeric rows.
 	ErrHeaderOnly = errors.New("header but no data rows")
 	// ErrNotNumeric: a field that must hold a number does not parse as one,
-	// or no line of the input is numeric, or the input looks binary.
+	// or no line of the input is numeric.
 	ErrNotNumeric = errors.New("not a number")
+	// ErrBinary: text input (FormatAuto or FormatCSV) that is not text: its
+	// first block holds NUL bytes or a high share of control bytes and
+	// invalid UTF-8, or a line of it holds NUL bytes. Raw samples must be
+	// read with FormatF32LE or FormatF64LE.
+	ErrBinary = errors.New("looks binary (not delimited text)")
 	// ErrNonFinite: a value is NaN, ±Inf, out of float64 range or missing
 	// (empty, NA, N/A, null) and the NaN policy is NaNReject, or every
 	// value is non-finite.
@@ -28,12 +35,15 @@ var (
 	// ErrConstant: all values are equal, so the trace carries no
 	// fluctuation to analyse.
 	ErrConstant = errors.New("constant series")
-	// ErrTooShort: fewer samples than Options.MinLength.
+	// ErrTooShort: fewer samples than Options.MinLength; the *Error's
+	// Count and Limit hold the samples read and the minimum.
 	ErrTooShort = errors.New("too short")
 	// ErrRagged: a data row has a different number of fields than the
 	// table.
 	ErrRagged = errors.New("ragged row")
-	// ErrTooLarge: more samples than Options.MaxSamples.
+	// ErrTooLarge: more samples than Options.MaxSamples; the *Error's
+	// Count and Limit hold the samples seen when reading stopped (a lower
+	// bound) and the limit.
 	ErrTooLarge = errors.New("too large")
 	// ErrTruncated: raw binary input whose length is not a whole number
 	// of samples, or a gzip stream that ends early.
@@ -67,6 +77,10 @@ type Error struct {
 	Name   string // header name of Column, "" when there is no header
 	Err    error  // one of the Err* sentinels, or an I/O or gzip error
 	Detail string // the offending field, counts or a hint; may be ""
+	// Count and Limit are the numbers behind ErrTooShort (samples read,
+	// the minimum) and ErrTooLarge (samples seen, the maximum), so that a
+	// caller can phrase its own advice; both 0 for other errors.
+	Count, Limit int
 }
 
 // Error renders the one-line message described on the type.
@@ -88,7 +102,7 @@ func (e *Error) Error() string {
 		b.WriteString(" column ")
 		b.WriteString(strconv.Itoa(e.Column))
 		if e.Name != "" {
-			fmt.Fprintf(&b, " (%q)", e.Name)
+			fmt.Fprintf(&b, " (%s)", echo.Quote(e.Name))
 		}
 	}
 	b.WriteString(": ")
@@ -105,12 +119,5 @@ func (e *Error) Error() string {
 // Unwrap returns Err, so errors.Is and errors.As see the sentinel.
 func (e *Error) Unwrap() error { return e.Err }
 
-// quoteField quotes a field for an error message, shortening long ones so
-// the message stays one readable line.
-func quoteField(b []byte) string {
-	const max = 40
-	if len(b) > max {
-		return strconv.Quote(string(b[:max])) + "..."
-	}
-	return strconv.Quote(string(b))
-}
+// quoteField quotes a field for an error message (see echo.Quote).
+func quoteField(b []byte) string { return echo.Quote(string(b)) }

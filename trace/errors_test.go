@@ -9,6 +9,40 @@ import (
 	"testing"
 )
 
+// noNUL returns n float32-exact values none of whose little-endian bytes
+// is 0, as raw samples from an instrument might be.
+func noNUL(n int) []float64 {
+	out := make([]float64, 0, n)
+	for i := 0; len(out) < n; i++ {
+		v := math.Float32frombits(0x3f800001 + uint32(i)*0x01010101%0x007fffff)
+		b := math.Float32bits(v)
+		if b&0xff != 0 && b&0xff00 != 0 && b&0xff0000 != 0 && b>>24 != 0 {
+			out = append(out, float64(v))
+		}
+	}
+	return out
+}
+
+// semiRows renders n ';'-delimited time/value rows with decimal commas,
+// except row k (0-based), which is s.
+func semiRows(n, k int, s string) string {
+	return rows(n, func(i int) string {
+		if i == k {
+			return s
+		}
+		return strings.ReplaceAll(fmt.Sprintf("%d;%g", i, val(i)), ".", ",")
+	})
+}
+
+// header renders the names c1 … cn joined by commas.
+func header(n int) string {
+	names := make([]string, n)
+	for i := range names {
+		names[i] = fmt.Sprintf("c%d", i+1)
+	}
+	return strings.Join(names, ",")
+}
+
 // tv renders a time/value row with the test values.
 func tv(i int) string { return fmt.Sprintf("%d,%g", i, val(i)) }
 
@@ -49,8 +83,22 @@ func TestReadErrors(t *testing.T) {
 			`demo.csv line 3, column 2 ("x"): not a number: "x"`},
 		{"no numeric line", []byte("a,b\n1.2.3,4\n"), Options{}, ErrNotNumeric,
 			`demo.csv line 2, column 1: not a number: "1.2.3" (no line of the input is a row of numbers)`},
-		{"binary", []byte("ab\x00\x01\n"), Options{}, ErrNotNumeric,
-			"demo.csv line 1: not a number: NUL bytes: the input looks binary (raw samples need format f32le or f64le; UTF-16 text needs a byte-order mark)"},
+		{"binary", []byte("ab\x00\x01\n"), Options{}, ErrBinary,
+			"demo.csv: looks binary (not delimited text): for raw samples use format f32le or f64le"},
+		// Before the first-block check, a file of NULs without a line end
+		// ran into the line length limit.
+		{"all NUL", make([]byte, MaxLineBytes+1), Options{}, ErrBinary,
+			"demo.csv: looks binary (not delimited text): for raw samples use format f32le or f64le"},
+		{"all NUL as csv", make([]byte, 5000), Options{Format: FormatCSV}, ErrBinary,
+			"demo.csv: looks binary (not delimited text): for raw samples use format f32le or f64le"},
+		{"raw samples without NUL bytes", rawF32(noNUL(2000)), Options{}, ErrBinary,
+			"demo.csv: looks binary (not delimited text): for raw samples use format f32le or f64le"},
+		{"raw samples gzipped", gz(t, string(rawF32(noNUL(2000)))), Options{}, ErrBinary,
+			"demo.csv: looks binary (not delimited text): for raw samples use format f32le or f64le"},
+		{"UTF-16 without byte-order mark", utf16LE("t,x\n" + rows(300, tv))[2:], Options{}, ErrBinary,
+			"demo.csv: looks binary (not delimited text): every other byte is NUL, as in UTF-16 text without a byte-order mark; save it as UTF-8"},
+		{"NUL bytes after the first block", []byte(rows(80, func(i int) string { return "# " + strings.Repeat("-", 60) }) + "\x00\x01\x02\n" + rows(300, tv)), Options{}, ErrBinary,
+			"demo.csv line 81: looks binary (not delimited text): NUL bytes in the line"},
 		{"NaN rejected", []byte("Time,Id\n" + replaceRow(300, 15, "15,NaN")), Options{}, ErrNonFinite,
 			`demo.csv line 17, column 2 ("Id"): non-finite or missing value: "NaN" (set --nan drop or --nan interpolate to accept such values)`},
 		{"Inf and empty rejected", []byte("Time,Id\n" + replaceRow(300, 15, "15,-Inf") + "300,\n"), Options{}, ErrNonFinite,
@@ -73,21 +121,50 @@ func TestReadErrors(t *testing.T) {
 		{"decimal commas hint", []byte(rows(300, func(i int) string { return fmt.Sprintf("0,%03d", i%7) })), Options{}, ErrConstant,
 			"demo.csv column 1: constant series: all 300 values equal 0 (if the commas are decimal commas, export with ';' or tab as the delimiter)"},
 		{"too short", []byte(rows(120, func(i int) string { return fmt.Sprint(val(i)) })), Options{}, ErrTooShort,
-			"demo.csv: too short: only 120 samples, at least 256 needed (set --min-length)"},
+			"demo.csv: too short: only 120 samples, at least 256 needed"},
 		{"too short after dropping", []byte(replaceRow(10, 3, "3,")), Options{MinLength: 10, NaN: NaNDrop}, ErrTooShort,
-			"demo.csv: too short: only 9 samples, at least 10 needed (set --min-length)"},
+			"demo.csv: too short: only 9 samples, at least 10 needed"},
 		{"one row", []byte("1,2,3,4,5,6,7,8\n"), Options{}, ErrTooShort,
-			"demo.csv: too short: only 1 sample, at least 256 needed (set --min-length) (the data are one row of 8 values; put one value per line)"},
+			"demo.csv: too short: only 1 sample, at least 256 needed (the data are one row of 8 values; put one value per line)"},
 		{"raw too short", rawF32(vals(100)), Options{Format: FormatF32LE}, ErrTooShort,
-			"demo.csv: too short: only 100 samples, at least 256 needed (set --min-length)"},
+			"demo.csv: too short: only 100 samples, at least 256 needed"},
 		{"ragged", []byte("t,x\n" + replaceRow(300, 15, "15,1,2")), Options{}, ErrRagged,
 			"demo.csv line 17: ragged row: 3 fields where the table has 2 (as from line 2)"},
 		{"ragged short row", []byte("t;x\n" + strings.ReplaceAll(replaceRow(300, 200, "200"), ",", ";")), Options{}, ErrRagged,
-			"demo.csv line 202: ragged row: 1 fields where the table has 2 (as from line 2)"},
+			"demo.csv line 202: ragged row: 1 field where the table has 2 (as from line 2)"},
 		{"ragged among first rows", []byte("t,x\n" + replaceRow(300, 1, "1,1,2")), Options{}, ErrRagged,
 			"demo.csv line 3: ragged row: 3 fields where the table has 2 (as from line 2)"},
 		{"footer followed by data", []byte("t,x\n" + replaceRow(300, 100, "Pause") + "END\n"), Options{}, ErrRagged,
-			"demo.csv line 102: ragged row: 1 fields where the table has 2 (as from line 2)"},
+			"demo.csv line 102: ragged row: 1 field where the table has 2 (as from line 2)"},
+		{"delimiter changes", []byte("t,x\n" + replaceRow(300, 55, "55;1.5")), Options{}, ErrRagged,
+			"demo.csv line 57: ragged row: 1 field where the table has 2 (this line seems to use ';' where the file uses ',')"},
+		{"delimiter changes among first rows", []byte("t,x\n" + replaceRow(300, 1, "1;1.5")), Options{}, ErrRagged,
+			"demo.csv line 3: ragged row: 1 field where the table has 2 (this line seems to use ';' where the file uses ',')"},
+		{"tab in a ';' table", []byte(semiRows(300, 200, "200\t1,5")), Options{}, ErrRagged,
+			"demo.csv line 201: ragged row: 1 field where the table has 2 (this line seems to use tabs where the file uses ';')"},
+		{"spaces in a ',' table", []byte(replaceRow(300, 200, "200 1.5")), Options{}, ErrRagged,
+			"demo.csv line 201: ragged row: 1 field where the table has 2 (this line seems to use spaces where the file uses ',')"},
+		{"',' in a blank-separated table", []byte(strings.ReplaceAll(replaceRow(300, 200, "200;1.5"), ",", " ")), Options{}, ErrRagged,
+			"demo.csv line 201: ragged row: 1 field where the table has 2 (this line seems to use ';' where the file uses spaces)"},
+		{"trailing delimiters", []byte(rows(300, func(i int) string {
+			if i == 40 {
+				return "40,1.5,"
+			}
+			return fmt.Sprintf("%d;%g;", i, val(i))
+		})), Options{}, ErrRagged,
+			"demo.csv line 41: ragged row: 1 field where the table has 2 (this line seems to use ',' where the file uses ';')"},
+		// With decimal commas "1,5" is one value: a short row, not a
+		// comma-delimited one.
+		{"decimal comma in a short row", []byte("t;x\n" + semiRows(300, 200, "1,5")), Options{}, ErrRagged,
+			"demo.csv line 202: ragged row: 1 field where the table has 2 (as from line 2)"},
+		{"other delimiter, other width", []byte("t,x\n" + replaceRow(300, 55, "55;1.5;2")), Options{}, ErrRagged,
+			"demo.csv line 57: ragged row: 1 field where the table has 2 (as from line 2)"},
+		{"long field shortened", []byte("t,x\n" + replaceRow(300, 15, "15,"+strings.Repeat("1.2.", 30))), Options{}, ErrNotNumeric,
+			`demo.csv line 17, column 2 ("x"): not a number: "` + strings.Repeat("1.2.", 14) + `1."…`},
+		{"long name shortened", []byte("t," + strings.Repeat("µ", 80) + "\n" + replaceRow(300, 15, "15,x")), Options{}, ErrNotNumeric,
+			`demo.csv line 17, column 2 ("` + strings.Repeat("µ", 58) + `"…): not a number: "x"`},
+		{"many columns listed in part", []byte(header(20) + "\n" + rows(300, func(i int) string { return strings.TrimSuffix(strings.Repeat(tv(i)+",", 10), ",") })), Options{Column: "Ig"}, ErrNoColumn,
+			`demo.csv line 1: no such column: "Ig"; available: 1 "c1", 2 "c2", 3 "c3", 4 "c4", 5 "c5", 6 "c6", 7 "c7", 8 "c8", 9 "c9", 10 "c10", 11 "c11", 12 "c12" and 8 more`},
 		{"too large text", []byte(rows(300, tv)), Options{MaxSamples: 100}, ErrTooLarge,
 			"demo.csv line 101: too large: more than 100 samples (the MaxSamples limit)"},
 		{"too large raw", rawF32(vals(300)), Options{Format: FormatF32LE, MaxSamples: 100}, ErrTooLarge,

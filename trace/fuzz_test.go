@@ -8,6 +8,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
@@ -41,6 +42,11 @@ func FuzzRead(f *testing.F) {
 		"\xef\xbb\xbfTime (s)\tI (\xb5A)\n1\t1,5\n2\t2,5\n3\t1,5\n",
 		";h;v;\n1;2;\n3;4;\n5;6;\n",
 		"1,2,3\n4,5\n6,7,8\n",
+		"t,x\n0,1\n1,2\n2;3\n3,1\n4 5\n5\t6\n",       // delimiter changes
+		"t;x;\n0;1,5;\n1;2,5;\n2,3,\n3;1;\n",         // trailing delimiters
+		"t\x00,\x00x\x00\n\x000\x00,\x001\x00\n\x00", // UTF-16LE without byte-order mark
+		"\x01\x02\x03\x04\x05\n1\n2\n",
+		"1\n2\n\xc2",
 	} {
 		for mode := range uint8(12) {
 			f.Add([]byte(s), mode)
@@ -49,6 +55,9 @@ func FuzzRead(f *testing.F) {
 	f.Add(rawF32([]float64{1, 2, math.NaN(), 4}), uint8(2+4))
 	f.Add(rawF64([]float64{1, 2, 3, math.Inf(1)}), uint8(3+8))
 	f.Add(gz(f, "1\n2\n3\n"), uint8(0))
+	f.Add(make([]byte, 5000), uint8(0))                                      // all NUL
+	f.Add(rawF32(noNUL(1100)), uint8(0))                                     // raw samples read as text
+	f.Add([]byte(strings.Repeat("# a comment\n", 400)+"1\x002\n"), uint8(0)) // NUL after the first block
 	f.Fuzz(func(t *testing.T, data []byte, mode uint8) {
 		formats := [...]Format{FormatAuto, FormatCSV, FormatF32LE, FormatF64LE}
 		policies := [...]NaNPolicy{NaNReject, NaNDrop, NaNInterpolate}

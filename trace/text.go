@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"tracesift/internal/echo"
 )
 
 // Detection limits.
@@ -80,6 +82,7 @@ type textReader struct {
 	timeNamed bool     // its header names a time axis
 
 	fields   [][]byte
+	alt      [][]byte // fields of a ragged row under another delimiter
 	rows     int
 	capHint  int    // expected rows, from the input size
 	indexCol bool   // column 1 is a sample counter by its header
@@ -221,8 +224,8 @@ func (p *textReader) detect() ([]probe, int, error) {
 			break
 		}
 		if bytes.IndexByte(b, 0) >= 0 {
-			return nil, 0, &Error{File: p.name, Line: p.lr.num, Err: ErrNotNumeric,
-				Detail: "NUL bytes: the input looks binary (raw samples need format f32le or f64le; UTF-16 text needs a byte-order mark)"}
+			// The first block passed sniff; binary further on.
+			return nil, 0, &Error{File: p.name, Line: p.lr.num, Err: ErrBinary, Detail: "NUL bytes in the line"}
 		}
 		bytesSeen += len(b)
 		pr := probe{num: p.lr.num, text: bytes.Clone(b), kind: kindOf(b)}
@@ -489,13 +492,17 @@ func (p *textReader) available() string {
 	if p.header == nil {
 		return fmt.Sprintf("the table has %d column(s) and no header, so choose by number 1–%d", p.nf, p.nf)
 	}
+	const most = 12 // names listed; a wide table's list stays one readable line
 	var b strings.Builder
 	b.WriteString("available:")
-	for i, h := range p.header {
+	for i, h := range p.header[:min(len(p.header), most)] {
 		if i > 0 {
 			b.WriteByte(',')
 		}
-		fmt.Fprintf(&b, " %d %q", i+1, h)
+		fmt.Fprintf(&b, " %d %s", i+1, echo.Quote(h))
+	}
+	if len(p.header) > most {
+		fmt.Fprintf(&b, " and %d more", len(p.header)-most)
 	}
 	return b.String()
 }
@@ -605,8 +612,7 @@ func (p *textReader) row(num int, line []byte) error {
 		n--
 	}
 	if n != p.nf {
-		return p.invalid(f, &Error{File: p.name, Line: num, Err: ErrRagged,
-			Detail: fmt.Sprintf("%d fields where the table has %d (as from line %d)", n, p.nf, p.first)})
+		return p.invalid(f, p.ragged(num, line, n))
 	}
 	var vs [2]float64
 	for k := range p.cols {
@@ -623,7 +629,7 @@ func (p *textReader) row(num int, line []byte) error {
 		return p.pending
 	}
 	if p.rows >= p.cfg.maxN {
-		return &Error{File: p.name, Line: num, Err: ErrTooLarge,
+		return &Error{File: p.name, Line: num, Err: ErrTooLarge, Count: p.cfg.maxN + 1, Limit: p.cfg.maxN,
 			Detail: fmt.Sprintf("more than %d samples (the MaxSamples limit)", p.cfg.maxN)}
 	}
 	p.rows++
@@ -649,6 +655,74 @@ func (p *textReader) row(num int, line []byte) error {
 		}
 	}
 	return nil
+}
+
+// ragged returns the ErrRagged error for line num, which has n fields.
+// When the line is no row of numbers under the table's delimiter but is
+// one of the table's width under another (a file pasted together from two
+// exports), the message names both delimiters.
+func (p *textReader) ragged(num int, line []byte, n int) *Error {
+	detail := fmt.Sprintf("%d %s where the table has %d", n, plural(n, "field"), p.nf)
+	if d, ok := p.otherDelim(line); ok {
+		detail += fmt.Sprintf(" (this line seems to use %s where the file uses %s)", delimName(d), delimName(p.delim))
+	} else {
+		detail += fmt.Sprintf(" (as from line %d)", p.first)
+	}
+	return &Error{File: p.name, Line: num, Err: ErrRagged, Detail: detail}
+}
+
+// otherDelim returns the delimiter other than the table's under which line
+// is a numeric row (see numericShape) of the table's field count. A line
+// that is a numeric row under the table's own delimiter is a row with a
+// field too few or too many, not another layout: with decimal commas,
+// "1,5" in a ';' table is one value, not two.
+func (p *textReader) otherDelim(line []byte) (byte, bool) {
+	if _, ok := p.numericUnder(line, p.delim); ok {
+		return 0, false
+	}
+	for _, d := range [...]byte{',', ';', '\t', wsDelim} {
+		if d == p.delim || d != wsDelim && bytes.IndexByte(line, d) < 0 {
+			continue
+		}
+		if n, ok := p.numericUnder(line, d); ok && n == p.nf {
+			return d, true
+		}
+	}
+	return 0, false
+}
+
+// numericUnder splits line by d (into p.alt, leaving p.fields alone) and
+// returns its field count, not counting a trailing empty field when the
+// table's rows end with a delimiter, and whether every field is a number
+// or missing and at least one is a number.
+func (p *textReader) numericUnder(line []byte, d byte) (int, bool) {
+	p.alt = splitFields(line, d, p.alt)
+	f := p.alt
+	n := len(f)
+	if p.trail && n == p.nf+1 && len(f[n-1]) == 0 {
+		n--
+	}
+	num := 0
+	for _, x := range f {
+		switch _, c := parseField(x, d != ','); c {
+		case tokText:
+			return n, false
+		case tokNumber:
+			num++
+		}
+	}
+	return n, num > 0
+}
+
+// delimName names a delimiter in a message.
+func delimName(d byte) string {
+	switch d {
+	case '\t':
+		return "tabs"
+	case wsDelim:
+		return "spaces"
+	}
+	return "'" + string(d) + "'"
 }
 
 // invalid handles a row that is ragged or not numeric: it is an error,

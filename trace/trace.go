@@ -149,8 +149,10 @@ func read(r io.Reader, name string, size int64, gzName bool, opts Options) (Trac
 		tr, err = readRaw(src, name, size, cfg)
 	default:
 		src = decodeUTF16(src)
-		p := &textReader{name: name, cfg: cfg, lr: newLineReader(src, name), size: size}
-		tr, err = p.read()
+		if src, err = sniff(src, name); err == nil {
+			p := &textReader{name: name, cfg: cfg, lr: newLineReader(src, name), size: size}
+			tr, err = p.read()
+		}
 	}
 	if len(warnings) > 0 {
 		tr.Warnings = append(warnings, tr.Warnings...)
@@ -250,8 +252,8 @@ func finish(tr *Trace, times []float64, res []int16, bad badInfo, cfg config) er
 		}
 	}
 	if n < cfg.minLen {
-		return &Error{File: tr.Source, Err: ErrTooShort,
-			Detail: fmt.Sprintf("only %d %s, at least %d needed (set --min-length)", n, plural(n, "sample"), cfg.minLen)}
+		return &Error{File: tr.Source, Err: ErrTooShort, Count: n, Limit: cfg.minLen,
+			Detail: fmt.Sprintf("only %d %s, at least %d needed", n, plural(n, "sample"), cfg.minLen)}
 	}
 	return nil
 }

@@ -63,6 +63,10 @@ type refRow struct {
 	Label, System, Class, Entropy, Complexity string
 }
 
+type warningLimitRow struct {
+	Warning, Rule, Limit string
+}
+
 type featureRow struct {
 	Name, Family, Value, Meaning, Reference, Missing string
 }
@@ -109,9 +113,10 @@ type view struct {
 	SurrogateFailures []string
 	SurrogatesSkipped bool
 
-	ModelFacts []fact
-	Features   []featureRow
-	Footer     string
+	ModelFacts    []fact
+	WarningLimits []warningLimitRow
+	Features      []featureRow
+	Footer        string
 }
 
 func (r *Report) view() view {
@@ -459,6 +464,9 @@ func iaaftNote(who string, s *surrogate.IAAFTSummary) string {
 }
 
 func (r *Report) viewMethods(v *view) {
+	for _, l := range classifier.RecordingWarningLimits() {
+		v.WarningLimits = append(v.WarningLimits, warningLimitRow{Warning: l.Warning, Rule: l.Rule, Limit: l.Limit})
+	}
 	m := r.Model
 	v.ModelFacts = []fact{
 		{"Model", m.Source},

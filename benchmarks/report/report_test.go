@@ -176,6 +176,19 @@ func TestReportIsWellFormedAndComplete(t *testing.T) {
 			t.Errorf("report does not mention %q", want)
 		}
 	}
+	// The methods list every recording warning with its rule and measured
+	// limit (classifier.RecordingWarningLimits), and the verdict's
+	// warnings point there.
+	if !ids["warning-limits"] || !bytes.Contains(html, []byte(`href="#warning-limits"`)) {
+		t.Error("no link to the recording-warning limits")
+	}
+	for _, l := range classifier.RecordingWarningLimits() {
+		for _, s := range []string{"<td class=\"code\">" + esc(l.Warning) + "</td>", esc(l.Rule), esc(l.Limit)} {
+			if !bytes.Contains(html, []byte(s)) {
+				t.Errorf("report lacks %q", s)
+			}
+		}
+	}
 	if len(rep.Failures) != 0 {
 		t.Errorf("panels failed on a clean Hénon trace: %v", rep.Failures)
 	}

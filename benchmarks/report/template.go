@@ -136,6 +136,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 {{- else}}
 <p class="muted">No recording-quality warnings (length, clipping, quantisation, drift, mains interference).</p>
 {{- end}}
+<p class="muted" style="font-size: .82rem">What each warning tests and the smallest effect it detects: <a href="#warning-limits">Methods, recording warnings</a>.</p>
 <h3>Features that drove the verdict</h3>
 <table>
 <thead><tr><th class="code">feature</th><th class="n">value</th><th class="n">contribution</th><th></th><th>meaning</th></tr></thead>
@@ -256,6 +257,15 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <p><strong>Visibility graphs.</strong> Natural visibility (Lacasa et al. 2008) and horizontal visibility (Luque et al. 2009); HVG tail rate by maximum likelihood of a geometric tail with k_min chosen by the Kolmogorov–Smirnov distance (Lacasa &amp; Toral 2010); NVG power-law exponent by discrete maximum likelihood (Clauset, Shalizi &amp; Newman 2009); local clustering by triangle counting (Watts &amp; Strogatz 1998).</p>
 <p><strong>Complexity–entropy plane.</strong> Ordinal patterns (Bandt &amp; Pompe 2002), normalised permutation entropy and Jensen–Shannon statistical complexity (Rosso et al. 2007), bounds after Martin, Plastino &amp; Rosso (2006). Reference series come from tracesift's generators at fixed seeds and the trace's length.</p>
 <p><strong>Surrogates.</strong> Iterated amplitude-adjusted Fourier transform surrogates (Schreiber &amp; Schmitz 1996) keep the values and, closely, the power spectrum: they embody a static monotone transform of a linear Gaussian process. The determinism test (the test of <code>classify --significance</code>) compares the simplex forecast skill (Sugihara &amp; May 1990) and the time-reversal asymmetry of the increments (Theiler et al. 1992) of the rank-Gaussianised trace, both at the embedding delay (first minimum of the mutual information, Fraser &amp; Swinney 1986; dimension by Cao 1997), with their surrogate distributions. Rank-based p-values (Theiler et al. 1992; Schreiber &amp; Schmitz 2000), Holm's step-down adjustment across statistics (Holm 1979).</p>
+<p><strong>Recording warnings.</strong> Computed on the whole trace before the features. Clipping: the count on the extreme level against the most an unclipped edge allows given the levels inside it. Drift: the least-squares straight line against the trace's own slow fluctuations, whose spectrum at the lowest frequencies is a power law fitted by log-periodogram regression (Geweke &amp; Porter-Hudak 1983) and integrated down to zero frequency. Mains lines: periodogram ordinates near 50 and 60 Hz and their harmonics against the median of the ordinates beside them; the ordinates of a smooth spectrum are independent exponential variables (Brillinger 1981), so the chance that one exceeds a multiple of the median follows exactly from Rényi's representation of order statistics (Rényi 1953). The rules and the detection limits measured on synthetic traces:</p>
+<table class="compact" id="warning-limits">
+<thead><tr><th>warning</th><th>rule</th><th>measured detection limit and false alarms</th></tr></thead>
+<tbody>
+{{- range .WarningLimits}}
+<tr><td class="code">{{.Warning}}</td><td>{{.Rule}}</td><td>{{if .Limit}}{{.Limit}}{{else}}a fixed rule, no detection limit to measure{{end}}</td></tr>
+{{- end}}
+</tbody>
+</table>
 <h3>Model</h3>
 <dl class="facts two">
 {{- range .ModelFacts}}
@@ -266,9 +276,11 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <ol class="refs">
 <li>Bandt C, Pompe B. Permutation entropy: a natural complexity measure for time series. Phys. Rev. Lett. 88 (2002) 174102.</li>
 <li>Breiman L. Random forests. Machine Learning 45 (2001) 5.</li>
+<li>Brillinger DR. Time Series: Data Analysis and Theory. Holden-Day (1981) (memory).</li>
 <li>Cao L. Practical method for determining the minimum embedding dimension of a scalar time series. Physica D 110 (1997) 43.</li>
 <li>Clauset A, Shalizi CR, Newman MEJ. Power-law distributions in empirical data. SIAM Review 51 (2009) 661.</li>
 <li>Fraser AM, Swinney HL. Independent coordinates for strange attractors from mutual information. Phys. Rev. A 33 (1986) 1134.</li>
+<li>Geweke J, Porter-Hudak S. The estimation and application of long memory time series models. J. Time Ser. Anal. 4 (1983) 221 (memory).</li>
 <li>Holm S. A simple sequentially rejective multiple test procedure. Scand. J. Statist. 6 (1979) 65.</li>
 <li>Lacasa L, Luque B, Ballesteros F, Luque J, Nuño JC. From time series to complex networks: the visibility graph. PNAS 105 (2008) 4972.</li>
 <li>Lacasa L, Luque B, Luque J, Nuño JC. The visibility graph: a new method for estimating the Hurst exponent of fractional Brownian motion. EPL 86 (2009) 30001 (memory).</li>
@@ -277,6 +289,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <li>Luque B, Lacasa L, Ballesteros F, Luque J. Horizontal visibility graphs: exact results for random time series. Phys. Rev. E 80 (2009) 046103.</li>
 <li>Martin MT, Plastino A, Rosso OA. Generalized statistical complexity measures: geometrical and analytical properties. Physica A 369 (2006) 439 (memory).</li>
 <li>Núñez AM, Lacasa L, Gómez JP, Luque B. Visibility algorithms: a short review (2012) (memory).</li>
+<li>Rényi A. On the theory of order statistics. Acta Math. Acad. Sci. Hung. 4 (1953) 191 (memory).</li>
 <li>Rosso OA, Larrondo HA, Martin MT, Plastino A, Fuentes MA. Distinguishing noise from chaos. Phys. Rev. Lett. 99 (2007) 154102.</li>
 <li>Saabas A. Interpreting random forests (2014), blog post (memory).</li>
 <li>Schreiber T, Schmitz A. Improved surrogate data for nonlinearity tests. Phys. Rev. Lett. 77 (1996) 635.</li>

@@ -43,8 +43,8 @@ func newClassifyCmd(e *env) *cobra.Command {
 exponent), stochastic (noise of any colour or distribution) or regular
 (periodic or quasi-periodic), with the class probabilities of the tree
 ensemble, the features that drove the decision, and warnings about the
-recording (short, clipped, quantised, drifting, mains interference when the
-file has a time column in seconds).
+recording (short, clipped, quantised, few cycles, drift, non-stationary,
+mains interference when the file has a time column in seconds; see below).
 
 The verdict is "undetermined" when the top probability is below the
 model's threshold (0.5) or when the trace lies outside what the model can
@@ -65,6 +65,11 @@ measured in up to 8 evenly spaced windows whose probabilities are averaged.
 The embedded default model is used unless --model names another (made with
 'tracesift train'). Files are processed in parallel; a bad file is reported
 and skipped, and the exit status is 1 if any failed.
+
+Recording warnings, with the rule each uses and its measured detection
+limit (the report repeats them):
+
+` + classifier.RecordingWarningHelp(78, "  ") + `
 
 --significance adds, per trace, a test of the model's vote that does not
 depend on it: is the structure of the trace significant against IAAFT
@@ -123,7 +128,7 @@ test could not run on the trace, which does not fail the file.
 		},
 	}
 	f := c.Flags()
-	o.in.bind(f)
+	o.in.bind(f, features.MinLength)
 	f.StringVar(&o.model, "model", "", "model file (default: the embedded default model)")
 	f.StringVar(&o.format, "format", formatTable, "output format: table or json (JSON Lines, one object per file)")
 	f.StringVarP(&o.out, "output", "o", "-", "output file (- for stdout)")
@@ -168,7 +173,7 @@ func runClassify(e *env, files []string, o *classifyOptions) error {
 		bw := bufio.NewWriter(w)
 		defer bw.Flush()
 		var rows []classifyRow
-		err := batch(e, files,
+		err := batch(e, "traces", files,
 			func(_ int, name string) (classifyResult, error) {
 				tr, err := readTrace(e, name, &o.in)
 				if err != nil {

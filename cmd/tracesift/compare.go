@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -65,7 +66,7 @@ distributions of per-node HVG clustering coefficients and NVG degrees.`,
 		},
 	}
 	f := c.Flags()
-	o.in.bind(f)
+	o.in.bind(f, features.MinLength)
 	f.StringArrayVar(&o.groups, "group", nil, "group as NAME=PATH (directory, glob or file); repeat for each group")
 	f.StringVar(&o.param, "param", "", "regular expression extracting a control parameter from each file name (first capture group)")
 	f.StringVar(&o.paramLabel, "param-label", "", "axis label of the control parameter in plots (default: parameter)")
@@ -112,6 +113,12 @@ func groupFiles(specs []string) (names []string, files [][]string, err error) {
 		}
 		sort.Strings(list)
 		if len(list) == 0 {
+			switch st, err := os.Stat(path); {
+			case err == nil && st.IsDir():
+				return nil, nil, fmt.Errorf("group %s: directory %s holds no trace files", name, path)
+			case !strings.ContainsAny(path, "*?["):
+				return nil, nil, fmt.Errorf("group %s: %s: no such file or directory", name, path)
+			}
 			return nil, nil, fmt.Errorf("group %s: no files match %s", name, path)
 		}
 		names = append(names, name)
@@ -164,9 +171,7 @@ func runCompare(e *env, o *compareOptions) error {
 		featNames = features.Names()
 	}
 	var samples []groups.Sample
-	progress := newProgress(e, len(all), "traces")
-	done := 0
-	batchErr := batch(e, all,
+	batchErr := batch(e, "traces", all,
 		func(_ int, name string) (compareTrace, error) {
 			tr, err := readTrace(e, name, &o.in)
 			if err != nil {
@@ -191,10 +196,6 @@ func runCompare(e *env, o *compareOptions) error {
 			return ct, nil
 		},
 		func(i int, name string, ct compareTrace) error {
-			done++
-			if progress != nil {
-				progress(done, len(all))
-			}
 			s := groups.Sample{File: name, Group: groupOf[i], Param: math.NaN()}
 			if re != nil {
 				s.Param = parseParam(re, filepath.Base(name))
@@ -213,7 +214,12 @@ func runCompare(e *env, o *compareOptions) error {
 			return nil
 		})
 	if len(samples) == 0 {
-		return fmt.Errorf("no trace could be measured")
+		return fmt.Errorf("no trace could be measured (errors above)")
+	}
+	var failed *batchError
+	errors.As(batchErr, &failed)
+	if err := checkGroupsMeasured(names, files, samples); err != nil {
+		return err
 	}
 	res, err := groups.Compare(featNames, samples, groups.Options{Alpha: o.alpha, Adjust: adjust, Groups: names})
 	if err != nil {
@@ -223,13 +229,19 @@ func runCompare(e *env, o *compareOptions) error {
 		if err := groups.WriteMarkdown(e.stdout, res); err != nil {
 			return err
 		}
+		if err := writeExcluded(e.stdout, failed); err != nil {
+			return err
+		}
 		fmt.Fprintf(e.stdout, "\n%s\n", caution)
 		return batchErr
 	}
-	if err := writeCompareDir(o, res); err != nil {
+	if err := writeCompareDir(o, res, failed); err != nil {
 		return err
 	}
 	fmt.Fprintf(e.stdout, "compared %d traces in %d groups; wrote %s\n", len(samples), len(names), o.out)
+	if failed != nil {
+		fmt.Fprintf(e.stdout, "  %d files could not be measured and were left out (listed in summary.md)\n", len(failed.failures))
+	}
 	for _, p := range res.Pairs {
 		var sig []string
 		for _, t := range p.Tests {
@@ -265,7 +277,7 @@ func parseParam(re *regexp.Regexp, name string) float64 {
 	return v
 }
 
-func writeCompareDir(o *compareOptions, res groups.Result) error {
+func writeCompareDir(o *compareOptions, res groups.Result, failed *batchError) error {
 	if err := os.MkdirAll(o.out, 0o755); err != nil {
 		return err
 	}
@@ -280,6 +292,9 @@ func writeCompareDir(o *compareOptions, res groups.Result) error {
 	outs := []output{
 		{"summary.md", func(w io.Writer) error {
 			if err := groups.WriteMarkdown(w, res); err != nil {
+				return err
+			}
+			if err := writeExcluded(w, failed); err != nil {
 				return err
 			}
 			_, err := fmt.Fprintf(w, "\n> %s\n", caution)
@@ -324,4 +339,32 @@ func plottable(res groups.Result) []string {
 		}
 	}
 	return out
+}
+
+// checkGroupsMeasured refuses a comparison in which a group lost every
+// file, naming the group and how many files it had.
+func checkGroupsMeasured(names []string, files [][]string, samples []groups.Sample) error {
+	count := map[string]int{}
+	for _, s := range samples {
+		count[s.Group]++
+	}
+	for g, name := range names {
+		if count[name] == 0 {
+			return fmt.Errorf("group %s: none of its %d %s could be measured (errors above)", name, len(files[g]), plural(len(files[g]), "file"))
+		}
+	}
+	return nil
+}
+
+// writeExcluded lists, in Markdown, the files a comparison left out and
+// why; nothing when none was.
+func writeExcluded(w io.Writer, failed *batchError) error {
+	if failed == nil {
+		return nil
+	}
+	fmt.Fprintf(w, "\n## Files left out\n\n%d of %d files could not be measured and are not in the tests above:\n\n", len(failed.failures), failed.total)
+	for _, f := range failed.failures {
+		fmt.Fprintf(w, "- `%s`: %s\n", f.Name, strings.TrimLeft(strings.TrimPrefix(f.Reason, f.Name), ":, "))
+	}
+	return nil
 }

@@ -1,27 +1,32 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"strings"
 
 	"github.com/spf13/cobra"
 
+	"tracesift/features"
 	"tracesift/features/visibility"
 	"tracesift/internal/atomicfile"
+	"tracesift/internal/jsonsafe"
 )
 
 func init() { addCommand(newGraphCmd) }
 
 type graphOptions struct {
-	in      inputOptions
-	kind    string
-	format  string
-	edges   string
-	graphml string
-	seed    uint64
-	sources int
-	noPaths bool
+	in       inputOptions
+	kind     string
+	format   string
+	edges    string
+	graphml  string
+	seed     uint64
+	sources  int
+	noPaths  bool
+	maxEdges int64
+	window   int
 }
 
 func newGraphCmd(e *env) *cobra.Command {
@@ -44,18 +49,37 @@ visibility: when every sample between is strictly lower than both.
 
 --edges writes the edge list as CSV (source,target, zero-based sample
 indices); --graphml writes GraphML with each node's sample value, for
-general graph tools.`,
+general graph tools.
+
+Memory: a graph holds about ` + fmt.Sprint(visibility.BytesPerEdge) + ` bytes per edge at the peak (built and
+measured), besides about 130 bytes per sample, and construction stops with
+an error once it passes --max-edges edges (default ` + fmt.Sprint(visibility.DefaultMaxEdges) + `, about
+` + memory(visibility.DefaultMaxEdges) + `). A horizontal graph has fewer than 2 edges per sample; a
+natural one has 3 per sample for white noise, 13 for 10^6 samples of a
+random walk, and more the longer and smoother the trace: 10^7 samples of
+Brownian motion give 1.6·10^8 edges, past the default budget (measured:
+3.7 GB with --max-edges 200000000 --no-paths). Raise the budget if the
+memory is there, or cut the trace with --window N: one graph per window
+of at most N consecutive samples (all windows of equal length, ±1 sample,
+covering the trace), measured one after another, printing each metric's
+mean, standard deviation, minimum, median and maximum over the windows
+(measured: 10 windows of 10^6 samples of that trace, 0.7 GB). Local metrics
+(degree distribution, λ, clustering, irreversibility) estimate the same
+quantities as the whole graph; metrics that grow with the graph (the mean
+degree and path length of a random walk's NVG) describe graphs of N nodes.`,
 		Example: `  tracesift graph testdata/demo/stressed/D01_stressed_Vg1.20.csv
   tracesift graph --kind hvg --format json trace.csv
   tracesift generate white --n 1000000 -o w.csv && tracesift graph w.csv --no-paths
-  tracesift graph trace.csv --edges edges.csv --graphml trace.graphml`,
+  tracesift graph trace.csv --edges edges.csv --graphml trace.graphml
+  tracesift graph long.csv --window 1000000       # NVGs of 10^6 samples, metrics over windows
+  tracesift graph long.csv --max-edges 300000000  # one graph, up to ~4.8 GB`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			return runGraph(e, args[0], &o)
 		},
 	}
 	f := c.Flags()
-	o.in.bind(f)
+	o.in.bind(f, 2)
 	f.StringVar(&o.kind, "kind", "nvg", "graph kind: nvg (natural) or hvg (horizontal)")
 	f.StringVar(&o.format, "format", formatTable, "output format: table or json (one object with key \"metrics\")")
 	f.StringVar(&o.edges, "edges", "", "write the edge list as CSV to this file")
@@ -63,7 +87,32 @@ general graph tools.`,
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the sampled path-length sources")
 	f.IntVar(&o.sources, "sources", 64, "BFS sources sampled for path lengths above 2000 nodes")
 	f.BoolVar(&o.noPaths, "no-paths", false, "skip path length, diameter and local dimension (the slowest metrics on huge graphs)")
+	f.Int64Var(&o.maxEdges, "max-edges", visibility.DefaultMaxEdges, fmt.Sprintf("edge budget: stop with an error past this many edges (about %d bytes each at the peak)", visibility.BytesPerEdge))
+	f.IntVar(&o.window, "window", 0, "build one graph per window of at most this many samples and print each metric's distribution over the windows (0: one graph of the whole trace)")
 	return c
+}
+
+// memory states the peak memory of a graph with the given number of edges.
+func memory(edges int64) string {
+	b := float64(edges) * visibility.BytesPerEdge
+	switch {
+	case b >= 1e9:
+		return fmt.Sprintf("%.1f GB", b/1e9)
+	case b >= 1e6:
+		return fmt.Sprintf("%.0f MB", b/1e6)
+	}
+	return fmt.Sprintf("%.0f kB", b/1e3)
+}
+
+// edgeBudgetError rewrites a graph that passed its edge budget in terms of
+// the command line: the flags that raise the budget or cut the trace.
+func edgeBudgetError(err error) error {
+	var eb *visibility.EdgeBudgetError
+	if !errors.As(err, &eb) {
+		return err
+	}
+	return fmt.Errorf("%s of %d samples: more than %d edges, the budget set by --max-edges (about %s at the peak); raise --max-edges (%d bytes per edge) or build graphs of windows with --window N (e.g. --window %d)",
+		eb.Graph, eb.Nodes, eb.Budget, memory(eb.Budget), visibility.BytesPerEdge, min(features.DefaultWindow, max(eb.Nodes/2, 2)))
 }
 
 func runGraph(e *env, file string, o *graphOptions) error {
@@ -80,17 +129,39 @@ func runGraph(e *env, file string, o *graphOptions) error {
 	if o.sources < 1 {
 		return usagef("--sources %d: want at least 1", o.sources)
 	}
+	if o.maxEdges < 1 {
+		return usagef("--max-edges %d: want at least 1", o.maxEdges)
+	}
+	if o.window < 0 || o.window == 1 {
+		return usagef("--window %d: want 0 (the whole trace) or at least 2 samples", o.window)
+	}
+	if o.window > 0 && (o.edges != "" || o.graphml != "") {
+		return usagef("--edges and --graphml write the graph of the whole trace: drop --window")
+	}
 	tr, err := readTrace(e, file, &o.in)
 	if err != nil {
 		return err
 	}
-	g, err := visibility.Build(tr.Values, kind, visibility.Options{})
+	gopts := visibility.Options{MaxEdges: o.maxEdges}
+	mopts := visibility.MeasureOptions{Sources: o.sources, NoPaths: o.noPaths, Seed: o.seed}
+	if o.window > 0 {
+		return runGraphWindows(e, file, tr.Source, tr.Values, kind, gopts, mopts, o)
+	}
+	// Stages on a terminal: graph built, metrics measured.
+	stage := newProgress(e, 2, "graph")
+	g, err := visibility.Build(tr.Values, kind, gopts)
+	if err != nil {
+		return fmt.Errorf("%s: %w", tr.Source, edgeBudgetError(err))
+	}
+	if stage != nil {
+		stage(1, 2)
+	}
+	m, err := visibility.Measure(g, mopts)
 	if err != nil {
 		return fmt.Errorf("%s: %w", tr.Source, err)
 	}
-	m, err := visibility.Measure(g, visibility.MeasureOptions{Sources: o.sources, NoPaths: o.noPaths, Seed: o.seed})
-	if err != nil {
-		return fmt.Errorf("%s: %w", tr.Source, err)
+	if stage != nil {
+		stage(2, 2)
 	}
 	if o.edges != "" {
 		if err := atomicfile.Write(o.edges, func(w io.Writer) error { return visibility.WriteEdgeList(w, g) }); err != nil {
@@ -158,6 +229,92 @@ func writeGraphTable(w io.Writer, file string, x []float64, m visibility.Metrics
 	}
 	for _, warn := range m.Warnings {
 		fmt.Fprintf(w, "warning: %s\n", warn)
+	}
+	return nil
+}
+
+// runGraphWindows builds and measures one graph per window of the trace and
+// prints each metric's distribution over the windows.
+func runGraphWindows(e *env, file, source string, x []float64, kind visibility.Kind, gopts visibility.Options, mopts visibility.MeasureOptions, o *graphOptions) error {
+	nw := len(visibility.Windows(len(x), o.window))
+	w, err := visibility.MeasureWindows(x, visibility.WindowOptions{
+		Kind: kind, Length: o.window, Graph: gopts, Measure: mopts,
+		Progress: newProgress(e, nw, "windows"),
+	})
+	if err != nil {
+		return fmt.Errorf("%s: %w", source, edgeBudgetError(err))
+	}
+	if o.format == formatJSON {
+		return writeJSONLine(e.stdout, windowedJSON(file, w))
+	}
+	return writeWindowedTable(e.stdout, file, w)
+}
+
+// graphWindowsLine is the JSON object of a windowed graph: "metrics" maps
+// each metric to its distribution over the windows, "windows" lists each
+// window's stretch and headline metrics.
+type graphWindowsLine struct {
+	File    string                             `json:"file"`
+	Samples int                                `json:"samples"`
+	Kind    string                             `json:"kind"`
+	Window  int                                `json:"window"`
+	Metrics map[string]visibility.Distribution `json:"metrics"`
+	Windows []graphWindowLine                  `json:"windows"`
+}
+
+type graphWindowLine struct {
+	Start    int                       `json:"start"`
+	End      int                       `json:"end"`
+	Metrics  map[string]jsonsafe.Float `json:"metrics"`
+	Warnings []string                  `json:"warnings,omitempty"`
+}
+
+func windowedJSON(file string, w visibility.Windowed) graphWindowsLine {
+	l := graphWindowsLine{File: file, Samples: w.Samples, Kind: w.Kind, Window: w.Length, Metrics: map[string]visibility.Distribution{}}
+	for _, d := range w.Summary {
+		l.Metrics[d.Metric] = d
+	}
+	names := visibility.SummaryMetrics()
+	for _, wm := range w.Windows {
+		line := graphWindowLine{Start: wm.Start, End: wm.End, Metrics: map[string]jsonsafe.Float{}, Warnings: wm.Metrics.Warnings}
+		for i, v := range wm.Metrics.Headline() {
+			line.Metrics[names[i]] = jsonsafe.Float(v)
+		}
+		l.Windows = append(l.Windows, line)
+	}
+	return l
+}
+
+func writeWindowedTable(out io.Writer, file string, w visibility.Windowed) error {
+	lo, hi := w.Samples, 0
+	for _, wm := range w.Windows {
+		lo, hi = min(lo, wm.Len()), max(hi, wm.Len())
+	}
+	size := fmt.Sprint(hi)
+	if lo != hi {
+		size = fmt.Sprintf("%d–%d", lo, hi)
+	}
+	fmt.Fprintf(out, "%s: %s of %d samples in %d %s of %s samples\n\n", file, strings.ToUpper(w.Kind), w.Samples, len(w.Windows), plural(len(w.Windows), "window"), size)
+	t := newTable(out)
+	t.row("METRIC", "MEAN", "SD", "MIN", "MEDIAN", "MAX", "WINDOWS")
+	for _, d := range w.Summary {
+		t.row(d.Metric, human(d.Mean), human(d.SD), human(d.Min), human(d.Median), human(d.Max), fmt.Sprintf("%d/%d", d.Defined, len(w.Windows)))
+	}
+	if err := t.flush(); err != nil {
+		return err
+	}
+	seen := map[string]int{}
+	var order []string
+	for _, wm := range w.Windows {
+		for _, warn := range wm.Metrics.Warnings {
+			if seen[warn] == 0 {
+				order = append(order, warn)
+			}
+			seen[warn]++
+		}
+	}
+	for _, warn := range order {
+		fmt.Fprintf(out, "warning (%d of %d windows): %s\n", seen[warn], len(w.Windows), warn)
 	}
 	return nil
 }

@@ -1,8 +1,10 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"runtime"
+	"strings"
 	"sync"
 
 	"github.com/spf13/pflag"
@@ -17,9 +19,15 @@ type inputOptions struct {
 	format    string
 	nan       string
 	minLength int
+	// floor is the fewest samples the command's analysis can use; a
+	// --min-length below it would only move the failure inside.
+	floor int
 }
 
-func (o *inputOptions) bind(f *pflag.FlagSet) {
+// bind adds the reading flags; floor is the fewest samples the command's
+// analysis can use (features.MinLength for commands that measure features).
+func (o *inputOptions) bind(f *pflag.FlagSet, floor int) {
+	o.floor = max(1, floor)
 	f.StringVar(&o.column, "column", "", "value column by header name or 1-based index (default: the single value column, or the first non-time column)")
 	f.StringVar(&o.format, "input-format", "auto", "input format: auto (delimited text, optionally gzip), f32le or f64le (raw little-endian samples)")
 	f.StringVar(&o.nan, "nan", "reject", "non-finite or missing samples: reject, drop, or interpolate (linear)")
@@ -48,17 +56,45 @@ func (o *inputOptions) validate() error {
 	default:
 		return usagef("--nan %q: want reject, drop or interpolate", o.nan)
 	}
-	if o.minLength < 1 {
-		return usagef("--min-length %d: want at least 1", o.minLength)
+	if o.minLength < o.floor {
+		if o.floor == 1 {
+			return usagef("--min-length %d: want at least 1", o.minLength)
+		}
+		return usagef("--min-length %d: this command's estimators need at least %d samples per trace", o.minLength, o.floor)
 	}
 	return nil
 }
 
+// batchFailure is one input a batch could not process.
+type batchFailure struct {
+	Name   string
+	Reason string // one line
+}
+
+// batchError reports that some inputs of a batch failed after the others
+// were processed; each failure was already reported on stderr. It matches
+// errSomeFailed under errors.Is.
+type batchError struct {
+	total    int
+	failures []batchFailure
+}
+
+func (b *batchError) Error() string {
+	return fmt.Sprintf("%d of %d inputs failed", len(b.failures), b.total)
+}
+
+func (b *batchError) Is(target error) bool { return target == errSomeFailed }
+
+// succeeded is the number of inputs that gave a result.
+func (b *batchError) succeeded() int { return b.total - len(b.failures) }
+
 // batch runs work on each input in parallel (at most GOMAXPROCS at once)
 // and hands the results to emit in input order, so output is deterministic.
 // An input whose work fails is reported on stderr as one line and skipped;
-// the others go on. batch returns errSomeFailed when any input failed.
-func batch[R any](e *env, inputs []string, work func(i int, name string) (R, error), emit func(i int, name string, r R) error) error {
+// the others go on. batch returns a *batchError (errSomeFailed) when any
+// input failed. what names the inputs in the progress bar drawn on a
+// terminal ("traces").
+func batch[R any](e *env, what string, inputs []string, work func(i int, name string) (R, error), emit func(i int, name string, r R) error) error {
 	type slot struct {
 		r    R
 		err  error
@@ -68,6 +104,7 @@ func batch[R any](e *env, inputs []string, work func(i int, name string) (R, err
 	for i := range slots {
 		slots[i].done = make(chan struct{})
 	}
+	progress := newProgress(e, len(inputs), what)
 	sem := make(chan struct{}, max(1, runtime.GOMAXPROCS(0)))
 	var wg sync.WaitGroup
 	go func() {
@@ -82,13 +119,17 @@ func batch[R any](e *env, inputs []string, work func(i int, name string) (R, err
 			}()
 		}
 	}()
-	failed := 0
+	var failures []batchFailure
 	var emitErr error
 	for i, name := range inputs {
 		<-slots[i].done
+		if progress != nil {
+			progress(i+1, len(inputs))
+		}
 		if slots[i].err != nil {
-			failed++
-			fmt.Fprintf(e.stderr, "tracesift: %s\n", oneLine(slots[i].err.Error()))
+			reason := oneLine(slots[i].err.Error())
+			failures = append(failures, batchFailure{Name: name, Reason: reason})
+			fmt.Fprintf(e.stderr, "tracesift: %s\n", reason)
 			continue
 		}
 		if emitErr == nil {
@@ -99,23 +140,32 @@ func batch[R any](e *env, inputs []string, work func(i int, name string) (R, err
 	if emitErr != nil {
 		return emitErr
 	}
-	if failed > 0 {
-		if failed == len(inputs) && len(inputs) > 1 {
-			fmt.Fprintf(e.stderr, "tracesift: all %d inputs failed\n", failed)
+	if len(failures) > 0 {
+		if len(failures) == len(inputs) && len(inputs) > 1 {
+			fmt.Fprintf(e.stderr, "tracesift: all %d inputs failed\n", len(failures))
 		} else if len(inputs) > 1 {
-			fmt.Fprintf(e.stderr, "tracesift: %d of %d inputs failed\n", failed, len(inputs))
+			fmt.Fprintf(e.stderr, "tracesift: %d of %d inputs failed\n", len(failures), len(inputs))
 		}
-		return errSomeFailed
+		return &batchError{total: len(inputs), failures: failures}
 	}
 	return nil
 }
 
-// readTrace reads one input with the shared options; "-" is stdin.
+// readTrace reads one input with the shared options; "-" is stdin. A trace
+// too short for --min-length gets the hint to lower it only when that can
+// help this command.
 func readTrace(e *env, name string, o *inputOptions) (trace.Trace, error) {
 	opts := o.traceOptions()
+	var tr trace.Trace
+	var err error
 	if name == "-" {
 		opts.Name = "stdin"
-		return trace.Read(e.stdin, opts)
+		tr, err = trace.Read(e.stdin, opts)
+	} else {
+		tr, err = trace.ReadFile(name, opts)
 	}
-	return trace.ReadFile(name, opts)
+	if errors.Is(err, trace.ErrTooShort) && o.minLength > o.floor && !strings.Contains(err.Error(), "--min-length") {
+		err = fmt.Errorf("%w (--min-length can go down to %d for this command)", err, o.floor)
+	}
+	return tr, err
 }

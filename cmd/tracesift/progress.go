@@ -10,7 +10,7 @@ import (
 // when stderr is not a terminal (scripts and logs get no bar). The callback
 // is safe for concurrent use.
 func newProgress(e *env, total int, what string) func(done, total int) {
-	if !stderrIsTerminal(e.stderr) || total <= 1 {
+	if !e.terminal || total <= 1 {
 		return nil
 	}
 	bar := progressbar.NewOptions(total,

@@ -2,9 +2,11 @@ package main
 
 import (
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
 	"math"
+	"os"
 	"strconv"
 	"strings"
 	"text/tabwriter"
@@ -14,11 +16,39 @@ import (
 
 // writeOutput sends the output to stdout for "-" and otherwise writes the
 // file atomically, so a failure never leaves a half-written file.
+//
+// When fill reports that some inputs of a batch failed (a *batchError), the
+// results of the good inputs are still written and a line on stderr says
+// what was written; when every input failed the file is not written, and
+// the line says so and whether an earlier file of that name was kept.
 func writeOutput(e *env, path string, fill func(w io.Writer) error) error {
 	if path == "-" || path == "" {
 		return fill(e.stdout)
 	}
-	return atomicfile.Write(path, fill)
+	var partial *batchError
+	err := atomicfile.Write(path, func(w io.Writer) error {
+		err := fill(w)
+		if errors.As(err, &partial) && partial.succeeded() > 0 {
+			return nil // keep the good results; the failures are reported below
+		}
+		return err
+	})
+	switch {
+	case err != nil && partial != nil:
+		kept := ""
+		if _, serr := os.Stat(path); serr == nil {
+			kept = "; the existing file was left unchanged"
+		}
+		fmt.Fprintf(e.stderr, "tracesift: %s not written: no input could be processed%s\n", path, kept)
+		return err
+	case err != nil:
+		return err
+	case partial != nil:
+		fmt.Fprintf(e.stderr, "tracesift: wrote the results of %d of %d inputs to %s; the %d that failed are listed above\n",
+			partial.succeeded(), partial.total, path, len(partial.failures))
+		return partial
+	}
+	return nil
 }
 
 // Output formats shared by the commands.
@@ -76,4 +106,12 @@ func writeJSONLine(w io.Writer, v any) error {
 	b = append(b, '\n')
 	_, err = w.Write(b)
 	return err
+}
+
+// plural returns word with an s appended when n ≠ 1.
+func plural(n int, word string) string {
+	if n == 1 {
+		return word
+	}
+	return word + "s"
 }

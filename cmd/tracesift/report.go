@@ -67,7 +67,7 @@ The verdict is a screening aid, not a device qualification result.`,
 		},
 	}
 	f := c.Flags()
-	o.in.bind(f)
+	o.in.bind(f, features.MinLength)
 	f.StringVarP(&o.out, "output", "o", "", "HTML file to write (required; - for stdout)")
 	f.StringVar(&o.model, "model", "", "model file (default: the embedded model)")
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the feature estimators and the surrogates")

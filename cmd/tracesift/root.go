@@ -28,6 +28,9 @@ type env struct {
 	stdin  io.Reader
 	stdout io.Writer
 	stderr io.Writer
+	// terminal is whether stderr is a terminal: progress bars are drawn
+	// only there.
+	terminal bool
 }
 
 // commands holds the constructors of the subcommands; each command file adds
@@ -92,7 +95,12 @@ func versionString() string {
 
 // run executes the command line and returns the exit status.
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
-	e := &env{stdin: stdin, stdout: stdout, stderr: stderr}
+	return runEnv(&env{stdin: stdin, stdout: stdout, stderr: stderr, terminal: stderrIsTerminal(stderr)}, args)
+}
+
+// runEnv executes the command line in e and returns the exit status.
+func runEnv(e *env, args []string) int {
+	stderr := e.stderr
 	root := newRootCmd(e)
 	root.SetArgs(args)
 	err := root.Execute()

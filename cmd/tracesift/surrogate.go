@@ -62,7 +62,7 @@ pred_rho1, pred_decay, perm_entropy, hvg_lambda, lyap_max.`,
 		},
 	}
 	f := c.Flags()
-	o.in.bind(f)
+	o.in.bind(f, features.MinLength)
 	f.StringVar(&o.method, "method", string(surrogate.IAAFT), "surrogate method: "+strings.Join(methodNames(), ", "))
 	f.IntVar(&o.count, "count", surrogate.DefaultCount, "number of surrogates M (39 is the least for a two-sided test at α = 0.05)")
 	f.StringSliceVar(&o.stats, "stat", nil, "feature to test (repeatable or comma-separated; required)")
@@ -132,18 +132,23 @@ func runSurrogate(e *env, file string, o *surrogateOptions) error {
 	if err != nil {
 		return fmt.Errorf("%s: %w", tr.Source, err)
 	}
-	if o.plot != "" {
-		if err := writeSurrogatePlots(o.plot, rep); err != nil {
-			return err
-		}
-	}
+	// The results go out first, so a plot that cannot be written does not
+	// lose them.
 	if o.format == formatJSON {
-		return writeJSONLine(e.stdout, struct {
+		err = writeJSONLine(e.stdout, struct {
 			File string `json:"file"`
 			*surrogate.Report
 		}{file, rep})
+	} else {
+		err = writeSurrogateTable(e.stdout, file, rep)
 	}
-	return writeSurrogateTable(e.stdout, file, rep)
+	if err != nil {
+		return err
+	}
+	if o.plot != "" {
+		return writeSurrogatePlots(o.plot, rep)
+	}
+	return nil
 }
 
 func writeSurrogatePlots(path string, rep *surrogate.Report) error {
@@ -156,7 +161,7 @@ func writeSurrogatePlots(path string, rep *surrogate.Report) error {
 		if err := atomicfile.Write(p, func(w io.Writer) error {
 			return surrogate.Plot(w, r, surrogate.PlotOptions{})
 		}); err != nil {
-			return fmt.Errorf("plot %s: %w", p, err)
+			return fmt.Errorf("plot: %w (the results above were computed)", err)
 		}
 	}
 	return nil

@@ -87,7 +87,7 @@ byte-identical model file.`,
 		},
 	}
 	f := c.Flags()
-	o.in.bind(f)
+	o.in.bind(f, features.MinLength)
 	f.BoolVar(&o.reference, "reference", false, "train on the built-in reference set")
 	f.StringVar(&o.labels, "labels", "", "CSV `file` with header file,class labelling your own traces")
 	f.BoolVar(&o.withReference, "with-reference", false, "with --labels: add the reference set to your traces")
@@ -290,15 +290,17 @@ func labelledDataset(e *env, o *trainOptions) (classifier.Dataset, []int, error)
 	}
 	ds := classifier.Dataset{Features: features.Names()}
 	var lengths []int
-	err = batch(e, paths,
-		func(_ int, p string) (features.Vector, error) {
+	err = batch(e, "traces", paths,
+		func(i int, p string) (features.Vector, error) {
+			// Failures name the labels file's line as well as the trace.
+			at := fmt.Sprintf("%s line %d", o.labels, labels[i].Line)
 			tr, err := readTrace(e, p, &o.in)
 			if err != nil {
-				return features.Vector{}, err
+				return features.Vector{}, fmt.Errorf("%s: %w", at, err)
 			}
 			v, err := features.Extract(tr.Values, features.Options{Seed: o.seed})
 			if err != nil {
-				return features.Vector{}, fmt.Errorf("%s: %w", p, err)
+				return features.Vector{}, fmt.Errorf("%s: %s: %w", at, p, err)
 			}
 			return v, nil
 		},

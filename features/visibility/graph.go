@@ -64,18 +64,66 @@ func ParseKind(s string) (Kind, error) {
 
 // Options controls graph construction. The zero value means the defaults.
 type Options struct {
-	// MaxEdges bounds the number of edges; construction stops with
-	// ErrTooManyEdges beyond it. Zero means DefaultMaxEdges. The NVG of a
-	// convex sequence has n(n−1)/2 edges, so without a bound a long convex or
-	// strongly accelerating trace could exhaust memory (16 bytes per edge are
-	// held at the peak of construction).
+	// MaxEdges is the edge budget: construction stops with an
+	// *EdgeBudgetError (errors.Is ErrTooManyEdges) once the graph has more
+	// edges. Zero means DefaultMaxEdges. The NVG of a convex sequence has
+	// n(n−1)/2 edges, so without a budget a long convex or strongly
+	// accelerating trace could exhaust memory; a graph that is built and
+	// then measured holds about BytesPerEdge bytes per edge at the peak.
 	MaxEdges int64
 }
 
-// DefaultMaxEdges is the edge bound used when Options.MaxEdges is zero:
-// 2^27 ≈ 1.3·10^8 edges, about 2 GiB at the peak of construction. A
-// 10^6-sample NVG of noise or Brownian motion has ~10^7 edges.
+// DefaultMaxEdges is the edge budget used when Options.MaxEdges is zero:
+// 2^27 ≈ 1.3·10^8 edges, about 2 GB at the peak of construction and
+// Measure (BytesPerEdge). A 10^6-sample NVG of white noise has 3·10^6
+// edges, of Brownian motion 1.3·10^7, of a Lorenz coordinate 3.8·10^7; the
+// NVG of 10^7 samples of Brownian motion passes the default budget.
 const DefaultMaxEdges int64 = 1 << 27
+
+// BytesPerEdge is the peak memory per edge of a visibility graph that is
+// built and measured with every metric of Measure (the CSR arrays, the
+// sweep log, triangle counting and the Louvain levels), rounded up:
+// measured 14–15 bytes per edge from the peak resident memory of
+// 'tracesift graph' on 10^6-sample NVGs with 3·10^6 to 3.8·10^7 edges
+// (white noise, a sine, Brownian motion, a Lévy walk, Lorenz x), over and
+// above about 130 bytes per sample, and 14.6 on the 1.6·10^8-edge NVG of
+// 10^7 samples of Brownian motion (3.7 GB without the path metrics). Use
+// it to turn an edge budget into memory.
+const BytesPerEdge = 16
+
+// EdgeBudgetError reports a construction stopped at its edge budget
+// (Options.MaxEdges). It matches ErrTooManyEdges under errors.Is; callers
+// that let their users set the budget can name their own setting from its
+// fields.
+type EdgeBudgetError struct {
+	// Graph names the construction ("natural visibility").
+	Graph string
+	// Nodes is the number of samples, Budget the edge budget passed.
+	Nodes  int
+	Budget int64
+}
+
+func (e *EdgeBudgetError) Error() string {
+	return fmt.Sprintf("%s of %d samples: more than %d edges, the edge budget (Options.MaxEdges; about %s at the peak): %v",
+		e.Graph, e.Nodes, e.Budget, formatBytes(e.Budget*BytesPerEdge), ErrTooManyEdges)
+}
+
+// Unwrap returns ErrTooManyEdges.
+func (e *EdgeBudgetError) Unwrap() error { return ErrTooManyEdges }
+
+// formatBytes writes a byte count for people: "2.1 GB", "340 MB", "12 kB"
+// (decimal units).
+func formatBytes(b int64) string {
+	switch {
+	case b >= 1e9:
+		return fmt.Sprintf("%.1f GB", float64(b)/1e9)
+	case b >= 1e6:
+		return fmt.Sprintf("%.0f MB", float64(b)/1e6)
+	case b >= 1e3:
+		return fmt.Sprintf("%.0f kB", float64(b)/1e3)
+	}
+	return fmt.Sprintf("%d B", b)
+}
 
 func (o Options) maxEdges() int64 {
 	if o.MaxEdges > 0 {
@@ -315,8 +363,8 @@ func Build(x []float64, kind Kind, opts Options) (*Graph, error) {
 	return nil, fmt.Errorf("build: kind %v: %w", kind, ErrUnknownKind)
 }
 
-func errTooMany(what string, max int64) error {
-	return fmt.Errorf("%s: more than %d edges (raise Options.MaxEdges): %w", what, max, ErrTooManyEdges)
+func errTooMany(what string, n int, max int64) error {
+	return &EdgeBudgetError{Graph: what, Nodes: n, Budget: max}
 }
 
 // degreesToOffsets turns the degrees in offsets[:n] into CSR offsets in

@@ -67,7 +67,7 @@ func Horizontal(x []float64, opts Options) (*Graph, error) {
 		stack = append(stack, int32(j))
 	}
 	if max := opts.maxEdges(); edges > max {
-		return nil, errTooMany("horizontal visibility", max)
+		return nil, errTooMany("horizontal visibility", n, max)
 	}
 	degreesToOffsets(offsets)
 	adj := make([]int32, 2*edges)

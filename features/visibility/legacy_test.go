@@ -53,7 +53,7 @@ func legacyNatural(x []float64, opts Options) (*Graph, error) {
 			stack = append(stack, seg{rc, int32(m + 1), r})
 		}
 		if sw.pairs.n > maxEdges {
-			return nil, errTooMany("natural visibility", maxEdges)
+			return nil, errTooMany("natural visibility", len(x), maxEdges)
 		}
 	}
 	return fromPairs(n, &sw.pairs, KindNVG), nil
@@ -217,7 +217,7 @@ func legacyHorizontal(x []float64, opts Options) (*Graph, error) {
 	}
 	edges := int64(len(lows))
 	if max := opts.maxEdges(); edges > max {
-		return nil, errTooMany("horizontal visibility", max)
+		return nil, errTooMany("horizontal visibility", len(x), max)
 	}
 	// lower[j] holds the running count; turn it into per-node counts and
 	// degrees.

@@ -95,7 +95,7 @@ func Natural(x []float64, opts Options) (*Graph, error) {
 			stack = append(stack, seg{rc, int32(m + 1), r})
 		}
 		if sw.edges > maxEdges {
-			return nil, errTooMany("natural visibility", maxEdges)
+			return nil, errTooMany("natural visibility", n, maxEdges)
 		}
 	}
 	sw.tree = nil

@@ -5,8 +5,10 @@
 package atomicfile
 
 import (
+	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
 )
@@ -22,7 +24,7 @@ func Write(path string, fill func(w io.Writer) error) (err error) {
 	dir := filepath.Dir(path)
 	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".*.tmp")
 	if err != nil {
-		return fmt.Errorf("%s: %w", path, err)
+		return createError(path, dir, err)
 	}
 	defer func() {
 		if err != nil {
@@ -46,4 +48,19 @@ func Write(path string, fill func(w io.Writer) error) (err error) {
 		return fmt.Errorf("%s: %w", path, err)
 	}
 	return nil
+}
+
+// createError explains why path cannot be created, naming the path the
+// caller gave rather than the temporary file.
+func createError(path, dir string, err error) error {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		err = pe.Err
+	}
+	if st, serr := os.Stat(dir); serr != nil {
+		return fmt.Errorf("cannot write %s: directory %s does not exist", path, dir)
+	} else if !st.IsDir() {
+		return fmt.Errorf("cannot write %s: %s is not a directory", path, dir)
+	}
+	return fmt.Errorf("cannot write %s: %w", path, err)
 }

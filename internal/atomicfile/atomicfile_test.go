@@ -69,3 +69,18 @@ func assertOnlyFile(t *testing.T, dir, name string) {
 		t.Fatalf("directory holds %v, want only %s (no temporary leftovers)", names, name)
 	}
 }
+
+// A destination in a missing directory is reported with the path the caller
+// gave, never with the name of the temporary file.
+func TestWriteMissingDirectoryNamesPath(t *testing.T) {
+	dir := t.TempDir()
+	p := filepath.Join(dir, "nope", "out.csv")
+	err := Write(p, func(w io.Writer) error { return nil })
+	if err == nil {
+		t.Fatal("no error for a missing directory")
+	}
+	want := "cannot write " + p + ": directory " + filepath.Join(dir, "nope") + " does not exist"
+	if err.Error() != want {
+		t.Fatalf("error %q, want %q", err, want)
+	}
+}
