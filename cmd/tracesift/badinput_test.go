@@ -16,7 +16,16 @@ import (
 
 // The bad-input catalogue: every kind of bad (and awkward but valid) input
 // through every command that reads traces, asserting the exit status, the
-// one-line message and exactly which output files exist afterwards.
+// one-line message and exactly which output files exist afterwards. Its
+// parts: bad trace files (each command), bad model files (the commands
+// taking --model), outputs in a missing directory, and batches mixing good
+// and bad files.
+func TestBadInputCatalogue(t *testing.T) {
+	t.Run("inputs", testBadInputs)
+	t.Run("models", testBadModels)
+	t.Run("output in a missing directory", testOutputInMissingDirectory)
+	t.Run("mixed batch", testMixedBatch)
+}
 
 // catalogueInput is one input of the catalogue. make writes it under dir and
 // returns its path; reason is a piece of the one-line message it must give
@@ -213,7 +222,7 @@ func checkOutputs(t *testing.T, what string, outputs []string, exist bool) {
 	}
 }
 
-func TestBadInputCatalogue(t *testing.T) {
+func testBadInputs(t *testing.T) {
 	if testing.Short() {
 		t.Skip("the catalogue runs every command on every input (about 30 s)")
 	}
@@ -254,7 +263,7 @@ func TestBadInputCatalogue(t *testing.T) {
 // A model file that is damaged, that names a feature this program does not
 // compute, or that was trained on another feature schema is refused with one line naming the file, by every command
 // that takes --model; nothing is written.
-func TestBadModelCatalogue(t *testing.T) {
+func testBadModels(t *testing.T) {
 	dir := t.TempDir()
 	good := writeSeries(t, dir, "w.csv", "white", "--n", "600")
 	damaged := fixture(t, dir, "damaged.model", []byte("TSFOREST\x01\x00garbage"))
@@ -296,9 +305,11 @@ func TestBadModelCatalogue(t *testing.T) {
 
 // An output path in a missing directory is reported with the path the user
 // gave (not a temporary file name) before any work is done.
-func TestOutputInMissingDirectory(t *testing.T) {
+func testOutputInMissingDirectory(t *testing.T) {
 	dir := t.TempDir()
 	good := writeSeries(t, dir, "w.csv", "white", "--n", "600")
+	writeSeries(t, dir, "h.csv", "henon", "--n", "600")
+	labels := fixture(t, dir, "labels.csv", []byte("file,class\nw.csv,stochastic\nh.csv,chaotic\n"))
 	missing := filepath.Join(dir, "no", "such")
 	for _, args := range [][]string{
 		{"classify", "-o", filepath.Join(missing, "v.txt"), good},
@@ -306,6 +317,7 @@ func TestOutputInMissingDirectory(t *testing.T) {
 		{"graph", "--kind", "hvg", "--edges", filepath.Join(missing, "e.csv"), good},
 		{"report", "--surrogates", "-1", "-o", filepath.Join(missing, "r.html"), good},
 		{"generate", "henon", "-o", filepath.Join(missing, "h.csv")},
+		{"train", "--labels", labels, "--folds", "0", "--trees", "5", "-o", filepath.Join(missing, "m.model")},
 	} {
 		_, stderr, code := runCLI(t, "", args...)
 		if code == exitOK {
@@ -321,7 +333,7 @@ func TestOutputInMissingDirectory(t *testing.T) {
 // A batch with good and bad files writes the good results to -o, lists the
 // failures and says what was written; exit status 1. An earlier file of the
 // same name is replaced by this run's good results.
-func TestMixedBatchWritesGoodResults(t *testing.T) {
+func testMixedBatch(t *testing.T) {
 	dir := t.TempDir()
 	a := writeSeries(t, dir, "a.csv", "white", "--n", "600", "--seed", "1")
 	b := writeSeries(t, dir, "b.csv", "henon", "--n", "600", "--seed", "2")
@@ -361,11 +373,18 @@ func TestMixedBatchWritesGoodResults(t *testing.T) {
 			}
 		}
 	}
+	// train refuses a labels file with a bad trace as a whole: no model.
+	labels := fixture(t, dir, "labels.csv", []byte("file,class\na.csv,stochastic\nb.csv,chaotic\nnonnum.csv,stochastic\n"))
+	model := filepath.Join(dir, "m.model")
+	_, stderr, code := runCLI(t, "", "train", "--labels", labels, "--folds", "0", "--trees", "5", "-o", model)
+	if _, err := os.Stat(model); code != exitPartial || err == nil || !strings.Contains(stderr, "labels.csv line 4: ") {
+		t.Errorf("train on a mixed labels file: exit %d, model written %v, stderr %q", code, err == nil, stderr)
+	}
 	// When every input fails the file is not written and the line says an
 	// existing one was kept.
 	out := filepath.Join(dir, "kept.csv")
 	os.WriteFile(out, []byte("previous run\n"), 0o644)
-	_, stderr, code := runCLI(t, "", "features", "-o", out, bad)
+	_, stderr, code = runCLI(t, "", "features", "-o", out, bad)
 	if got, _ := os.ReadFile(out); code != exitPartial || string(got) != "previous run\n" ||
 		!strings.Contains(stderr, out+" not written: no input could be processed; the existing file was left unchanged") {
 		t.Errorf("all failed: exit %d, file %q, stderr %q", code, got, stderr)
