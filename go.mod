@@ -1,4 +1,4 @@
-module tracesift
+module github.com/tracesift/tracesift
 
 go 1.26
 

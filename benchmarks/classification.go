@@ -6,9 +6,9 @@ import (
 	"math"
 	"slices"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // PlanSeedOffset is added to Options.Seed to make the classification plan

@@ -3,7 +3,7 @@ package benchmarks_test
 import (
 	"fmt"
 
-	"tracesift/benchmarks"
+	"github.com/tracesift/tracesift/benchmarks"
 )
 
 // Two invariant checks alone, without a model: the HVG mean degree of white

@@ -4,8 +4,8 @@ import (
 	"sync"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/features"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
 )
 
 // testModel trains a small forest once per test binary: about one

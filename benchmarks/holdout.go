@@ -3,8 +3,8 @@ package benchmarks
 import (
 	"fmt"
 
-	"tracesift/classifier"
-	"tracesift/features"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
 )
 
 // HoldoutSeedOffset is added to Options.Seed to seed the reference set of

@@ -8,11 +8,11 @@ import (
 	"slices"
 	"strings"
 
-	"tracesift/features/nonlinear"
-	"tracesift/features/ordinal"
-	"tracesift/features/scaling"
-	"tracesift/features/visibility"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/features/nonlinear"
+	"github.com/tracesift/tracesift/features/ordinal"
+	"github.com/tracesift/tracesift/features/scaling"
+	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // InvariantRow is the recovery of one published or analytic invariant of a

@@ -7,8 +7,8 @@ import (
 	"runtime"
 	"slices"
 
-	"tracesift/classifier"
-	"tracesift/features"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
 )
 
 // Scale selects a preset of the suite's sizes.

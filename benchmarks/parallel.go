@@ -3,7 +3,7 @@ package benchmarks
 import (
 	"sync"
 
-	"tracesift/internal/parallel"
+	"github.com/tracesift/tracesift/internal/parallel"
 )
 
 // forEach calls f(i) for i = 0..n−1 on up to workers goroutines. Each f

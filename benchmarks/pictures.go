@@ -5,10 +5,10 @@ import (
 	"math"
 	"math/rand/v2"
 
-	"tracesift/classifier"
-	"tracesift/features/ordinal"
-	"tracesift/features/visibility"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features/ordinal"
+	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // DegreeResult holds HVG degree distributions of an i.i.d. series, two

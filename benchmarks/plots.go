@@ -14,7 +14,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 
-	"tracesift/classifier"
+	"github.com/tracesift/tracesift/classifier"
 )
 
 // Figure is one PNG plot of a Result.

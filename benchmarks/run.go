@@ -6,8 +6,8 @@ import (
 	"math"
 	"time"
 
-	"tracesift/classifier"
-	"tracesift/features"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
 )
 
 // Caution is the screening caution every report carries.

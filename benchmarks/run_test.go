@@ -9,8 +9,8 @@ import (
 	"sync"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // tinySystems are four reference systems of each class.

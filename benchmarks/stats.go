@@ -5,7 +5,7 @@ import (
 	"slices"
 	"strconv"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // Float is a float64 that writes NaN and ±Inf as JSON null, so results.json

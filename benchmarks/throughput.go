@@ -6,9 +6,9 @@ import (
 	"runtime"
 	"time"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/features/visibility"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/visibility"
 )
 
 // ThroughputResult is the measured speed of the main operations against

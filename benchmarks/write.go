@@ -8,7 +8,7 @@ import (
 	"os"
 	"path/filepath"
 
-	"tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/internal/atomicfile"
 )
 
 // Output file names written by WriteAll besides the figures.

@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"math/rand/v2"
 
-	"tracesift/classifier"
+	"github.com/tracesift/tracesift/classifier"
 )
 
 // Example trains a small forest on two features where only "gap" decides

@@ -9,7 +9,7 @@ import (
 	"unicode"
 	"unicode/utf8"
 
-	"tracesift/internal/echo"
+	"github.com/tracesift/tracesift/internal/echo"
 )
 
 // Classes are the labels a training row may carry.

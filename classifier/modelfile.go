@@ -12,10 +12,10 @@ import (
 	"os"
 	"slices"
 
-	"tracesift/features"
-	"tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/internal/atomicfile"
 
-	"tracesift/internal/echo"
+	"github.com/tracesift/tracesift/internal/echo"
 )
 
 // Model file layout (all integers little-endian or unsigned varints as

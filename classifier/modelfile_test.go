@@ -14,7 +14,7 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/features"
+	"github.com/tracesift/tracesift/features"
 )
 
 func smallModel(t testing.TB) (*Model, Dataset) {

@@ -7,7 +7,7 @@ import (
 	"slices"
 	"sort"
 
-	"tracesift/internal/parallel"
+	"github.com/tracesift/tracesift/internal/parallel"
 )
 
 // Novelty says how far a feature vector lies from everything the model was

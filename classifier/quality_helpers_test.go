@@ -6,7 +6,7 @@ import (
 	"slices"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // qualitySignal is a named series generator for the recording-warning

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // TestLineThreshold checks the null law behind the mains test by Monte

@@ -10,9 +10,9 @@ import (
 	"strings"
 	"sync/atomic"
 
-	"tracesift/features"
-	"tracesift/generators"
-	"tracesift/internal/parallel"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/generators"
+	"github.com/tracesift/tracesift/internal/parallel"
 )
 
 // ReferenceOptions configures the reference training set. The zero value

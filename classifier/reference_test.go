@@ -6,8 +6,8 @@ import (
 	"reflect"
 	"testing"
 
-	"tracesift/features"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Every registered generator must have a training regime in the plan, so a

@@ -6,7 +6,7 @@ import (
 	"math"
 	"slices"
 
-	"tracesift/features"
+	"github.com/tracesift/tracesift/features"
 )
 
 // ScreenOptions configures Screen. The zero value selects the defaults.

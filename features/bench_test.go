@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // BenchmarkExtract measures the whole feature vector (all five families,

@@ -8,8 +8,8 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/features/ordinal"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/features/ordinal"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // adc records x with an ADC of levels codes over mean ± c·sd (rounding to

@@ -8,7 +8,7 @@ import (
 	"slices"
 	"sync"
 
-	"tracesift/features/visibility"
+	"github.com/tracesift/tracesift/features/visibility"
 )
 
 // MinLength is the shortest series Extract accepts. Shorter series leave

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"tracesift/features/visibility"
+	"github.com/tracesift/tracesift/features/visibility"
 )
 
 var graphFamily = family{

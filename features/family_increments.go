@@ -3,7 +3,7 @@ package features
 import (
 	"math"
 
-	"tracesift/features/increments"
+	"github.com/tracesift/tracesift/features/increments"
 )
 
 var incrementsFamily = family{

@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"math"
 
-	"tracesift/features/nonlinear"
-	"tracesift/features/ordinal"
+	"github.com/tracesift/tracesift/features/nonlinear"
+	"github.com/tracesift/tracesift/features/ordinal"
 )
 
 var nonlinearFamily = family{

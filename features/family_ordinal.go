@@ -3,7 +3,7 @@ package features
 import (
 	"math"
 
-	"tracesift/features/ordinal"
+	"github.com/tracesift/tracesift/features/ordinal"
 )
 
 var ordinalFamily = family{

@@ -4,7 +4,7 @@ import (
 	"errors"
 	"math"
 
-	"tracesift/features/scaling"
+	"github.com/tracesift/tracesift/features/scaling"
 )
 
 var scalingFamily = family{

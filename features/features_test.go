@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // coreNames are the feature names DESIGN.md promises to scripts.

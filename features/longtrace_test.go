@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/features/visibility"
+	"github.com/tracesift/tracesift/features/visibility"
 )
 
 // A trace longer than Options.Window is measured window by window: each

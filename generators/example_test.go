@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"sort"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Example looks a system up by name, labels it at a chosen parameter and

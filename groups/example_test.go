@@ -5,7 +5,7 @@ import (
 	"math"
 	"os"
 
-	"tracesift/groups"
+	"github.com/tracesift/tracesift/groups"
 )
 
 // The worked example of scipy.stats.mannwhitneyu's documentation: U = 17,

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"io"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // WriteJSON writes r as one indented JSON document: every field of Result

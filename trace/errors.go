@@ -6,7 +6,7 @@ import (
 	"strconv"
 	"strings"
 
-	"tracesift/internal/echo"
+	"github.com/tracesift/tracesift/internal/echo"
 )
 
 // Sentinel errors. Every error returned by Read and ReadFile for bad input

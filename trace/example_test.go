@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/trace"
 )
 
 // Example reads an instrument export with a preamble, a header with

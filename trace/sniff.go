@@ -4,7 +4,7 @@ import (
 	"bytes"
 	"io"
 
-	"tracesift/internal/echo"
+	"github.com/tracesift/tracesift/internal/echo"
 )
 
 // Binary detection on the first block of text input.

@@ -6,7 +6,7 @@ import (
 	"math"
 	"strings"
 
-	"tracesift/internal/echo"
+	"github.com/tracesift/tracesift/internal/echo"
 )
 
 // Detection limits.

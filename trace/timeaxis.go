@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"tracesift/internal/order"
+	"github.com/tracesift/tracesift/internal/order"
 )
 
 // UnevenTolerance is the relative jitter of time steps accepted as even

@@ -9,9 +9,9 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/models"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/models"
 )
 
 // The bad-input catalogue: every kind of bad (and awkward but valid) input

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/classifier"
+	"github.com/tracesift/tracesift/classifier"
 )
 
 // A trace listed in a labels file that cannot be read is reported with the

@@ -10,8 +10,8 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/benchmarks"
-	"tracesift/models"
+	"github.com/tracesift/tracesift/benchmarks"
+	"github.com/tracesift/tracesift/models"
 )
 
 func init() { addCommand(newBenchCmd) }

@@ -9,11 +9,11 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/features/surrogate"
-	"tracesift/internal/jsonsafe"
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/trace"
 )
 
 func init() { addCommand(newClassifyCmd) }

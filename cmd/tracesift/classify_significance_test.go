@@ -9,8 +9,8 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features/surrogate"
 )
 
 // sigTraces writes the traces the --significance tests share into a

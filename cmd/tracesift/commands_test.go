@@ -11,9 +11,9 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/models"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/models"
 )
 
 // writeSeries writes a generated series as a CSV file and returns its path.

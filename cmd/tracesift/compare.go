@@ -14,10 +14,10 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/features"
-	"tracesift/features/visibility"
-	"tracesift/groups"
-	"tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/groups"
+	"github.com/tracesift/tracesift/internal/atomicfile"
 )
 
 func init() { addCommand(newCompareCmd) }

@@ -10,10 +10,10 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/features"
-	"tracesift/features/visibility"
-	"tracesift/internal/jsonsafe"
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/trace"
 )
 
 func init() { addCommand(newFeaturesCmd) }

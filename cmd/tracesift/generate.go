@@ -10,7 +10,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 func init() { addCommand(newGenerateCmd) }

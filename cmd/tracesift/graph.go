@@ -8,10 +8,10 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/features"
-	"tracesift/features/visibility"
-	"tracesift/internal/atomicfile"
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 func init() { addCommand(newGraphCmd) }

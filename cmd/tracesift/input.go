@@ -9,7 +9,7 @@ import (
 
 	"github.com/spf13/pflag"
 
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/trace"
 )
 
 // inputOptions are the trace-reading flags shared by every command that

@@ -4,9 +4,9 @@ import (
 	"bytes"
 	"fmt"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/models"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/models"
 )
 
 // currentSchema is the identity of the running feature catalogue, stored in

@@ -11,7 +11,7 @@ import (
 	"strings"
 	"text/tabwriter"
 
-	"tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/internal/atomicfile"
 )
 
 // writeOutput sends the output to stdout for "-" and otherwise writes the

@@ -7,8 +7,8 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/benchmarks/report"
-	"tracesift/features"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/report"
 )
 
 func init() { addCommand(newReportCmd) }

@@ -7,8 +7,8 @@ import (
 	"sync"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/features"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
 )
 
 // reportForest is a small model trained once per test binary (the

@@ -4,9 +4,9 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // BenchmarkClassify10k is the cost of classifying one 10^4-sample trace

@@ -8,9 +8,9 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/features"
-	"tracesift/features/surrogate"
-	"tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/internal/atomicfile"
 )
 
 func init() { addCommand(newSurrogateCmd) }

@@ -7,8 +7,8 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/generators"
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/generators"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 func init() { addCommand(newSystemsCmd) }

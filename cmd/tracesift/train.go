@@ -12,9 +12,9 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tracesift/benchmarks"
-	"tracesift/classifier"
-	"tracesift/features"
+	"github.com/tracesift/tracesift/benchmarks"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
 )
 
 func init() { addCommand(newTrainCmd) }

@@ -8,10 +8,10 @@ import (
 	"slices"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/generators"
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/generators"
+	"github.com/tracesift/tracesift/trace"
 )
 
 // TestDemoVerdictsAgreeWithLabels: the embedded default model gives every

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math/rand/v2"
 
-	"tracesift/features/increments"
+	"github.com/tracesift/tracesift/features/increments"
 )
 
 // Telegraph-like switching shows as fat-tailed increments.

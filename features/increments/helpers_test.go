@@ -1,5 +1,5 @@
 package increments
 
-import "tracesift/features/scaling"
+import "github.com/tracesift/tracesift/features/scaling"
 
 func decayLags(k int) scaling.DecayOptions { return scaling.DecayOptions{MaxLag: k} }

@@ -26,7 +26,7 @@ import (
 	"math"
 	"slices"
 
-	"tracesift/features/scaling"
+	"github.com/tracesift/tracesift/features/scaling"
 )
 
 // Sentinel errors that callers may need to tell apart (use errors.Is).

@@ -6,7 +6,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 func newRNG(seed uint64) *rand.Rand { return rand.New(rand.NewPCG(seed, 0x1c7)) }

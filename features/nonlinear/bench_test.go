@@ -6,7 +6,7 @@ import (
 	"testing"
 	"time"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // cpuTime returns the process's user+system CPU time. Benchmarks report it

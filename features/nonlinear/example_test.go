@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"math/rand/v2"
 
-	"tracesift/features/nonlinear"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/features/nonlinear"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Estimate the largest Lyapunov exponent of the Hénon map from its x

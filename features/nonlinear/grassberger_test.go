@@ -4,7 +4,7 @@ import (
 	"math"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Correlation dimension (Grassberger & Procaccia, Physica D 9 (1983) 189).

@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // lorenzDt is the sample interval used for the Lorenz checks: 0.01 time

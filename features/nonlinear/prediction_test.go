@@ -6,7 +6,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat"
-	"tracesift/generators"
+
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Nonlinear prediction (Sugihara & May, Nature 344 (1990) 734): forecast

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"tracesift/internal/order"
+	"github.com/tracesift/tracesift/internal/order"
 )
 
 // LyapunovOptions configures Lyapunov. The zero value gives the documented

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // The survey behind the thresholds of Lyapunov's credibility criterion

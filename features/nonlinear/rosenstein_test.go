@@ -7,8 +7,8 @@ import (
 	"strconv"
 	"testing"
 
-	"tracesift/generators"
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/generators"
+	"github.com/tracesift/tracesift/trace"
 )
 
 // Largest Lyapunov exponent from the series alone (Rosenstein, Collins &

@@ -1,6 +1,6 @@
 package nonlinear
 
-import "tracesift/internal/order"
+import "github.com/tracesift/tracesift/internal/order"
 
 // interquartileMean returns the mean of the middle half of a: the values of
 // sorted ranks n/4 … n − n/4 − 1 (all of them when n < 4), the 25% trimmed

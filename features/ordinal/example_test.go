@@ -3,7 +3,7 @@ package ordinal_test
 import (
 	"fmt"
 
-	"tracesift/features/ordinal"
+	"github.com/tracesift/tracesift/features/ordinal"
 )
 
 // The logistic map at r = 4 never produces three decreasing values in a

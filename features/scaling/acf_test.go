@@ -5,7 +5,7 @@ import (
 	"math"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // naiveACF is the direct O(n·maxLag) sum of the same estimator.

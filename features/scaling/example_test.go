@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math/rand/v2"
 
-	"tracesift/features/scaling"
+	"github.com/tracesift/tracesift/features/scaling"
 )
 
 // A random walk has DFA exponent 1.5 and spectral slope 2.

@@ -6,7 +6,7 @@ import (
 	"sync"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // white returns n i.i.d. N(0,1) draws.

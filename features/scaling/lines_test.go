@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 func gen(t *testing.T, system string, n int, params map[string]float64, seed uint64) []float64 {

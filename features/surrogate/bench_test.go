@@ -4,7 +4,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // benchIAAFT makes 99 IAAFT surrogates of a 10^4-point AR(1) series with

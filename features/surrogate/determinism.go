@@ -6,7 +6,7 @@ import (
 	"math"
 	"strings"
 
-	"tracesift/features/nonlinear"
+	"github.com/tracesift/tracesift/features/nonlinear"
 )
 
 // Defaults of DeterminismOptions.

@@ -4,7 +4,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // benchDeterminism runs the determinism test with its defaults (39 IAAFT

@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"math/rand/v2"
 
-	"tracesift/features/surrogate"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Test the Hénon map for determinism against 39 IAAFT surrogates: both

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // system returns n samples of a registered reference system at its default

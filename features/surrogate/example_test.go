@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"math/rand/v2"
 
-	"tracesift/features/surrogate"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Test the Hénon map for time-reversal asymmetry against 99 IAAFT

@@ -6,7 +6,7 @@ import (
 	"slices"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // series returns n points of a reference system from the generators

@@ -7,7 +7,7 @@ import (
 	"sync"
 	"sync/atomic"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // Triangles returns, for every node, the number of triangles through it.

@@ -3,7 +3,7 @@ package visibility
 import (
 	"math"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // DegreeCount is one bin of a degree distribution: Count nodes have degree K,

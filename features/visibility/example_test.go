@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"os"
 
-	"tracesift/features/visibility"
+	"github.com/tracesift/tracesift/features/visibility"
 )
 
 // Build both graphs of a short series and read degrees and time-directed

@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // iidSeries draws n i.i.d. samples from a named continuous law.

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // IrreversibilityStats is the in/out-degree Kullback–Leibler divergence of a

@@ -5,7 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // Modularity returns the Newman–Girvan modularity of the partition of g given

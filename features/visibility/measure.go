@@ -6,7 +6,7 @@ import (
 	"math"
 	"math/rand/v2"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // MeasureOptions selects and tunes the metrics of Measure. The zero value

@@ -8,7 +8,7 @@ import (
 	"slices"
 	"sync"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // PathOptions controls Paths and LocalDimension. The zero value means the

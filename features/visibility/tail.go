@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // TailOptions controls ExponentialTail. The zero value means the defaults.

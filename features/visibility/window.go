@@ -6,7 +6,7 @@ import (
 	"math/rand/v2"
 	"slices"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 // Window is the stretch [Start, End) of a series.

@@ -34,7 +34,7 @@ import (
 	"slices"
 	"strings"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Scenario constants. All names are invented for this demo.

@@ -15,8 +15,8 @@ import (
 	"strings"
 	"testing"
 
-	"tracesift/generators"
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/generators"
+	"github.com/tracesift/tracesift/trace"
 )
 
 // committed is the directory of the committed data set.

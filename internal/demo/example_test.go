@@ -3,7 +3,7 @@ package demo_test
 import (
 	"fmt"
 
-	"tracesift/internal/demo"
+	"github.com/tracesift/tracesift/internal/demo"
 )
 
 // The campaign: which traces hold what, and where their files go.

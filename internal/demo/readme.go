@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"strings"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Readme returns the README.md of the data set: the scenario (fictional
@@ -26,7 +26,7 @@ func Readme(specs []Spec) ([]byte, error) {
 	p("> **Synthetic data — not a real measurement.** The %s,\n", Lab)
 	p("> wafer %s, its transistors, instruments and stress recipe are **fictional**,\n> invented for", Wafer)
 	p(" this demo. Every value in this directory was computed by\n")
-	p("> `testdata/demo/mkdemo.go` (package `tracesift/internal/demo`) from fixed\n")
+	p("> `testdata/demo/mkdemo.go` (package `github.com/tracesift/tracesift/internal/demo`) from fixed\n")
 	p("> seeds, and every class label is true by construction.\n\n")
 
 	p("## Scenario\n\n")
@@ -48,7 +48,7 @@ func Readme(specs []Spec) ([]byte, error) {
 	p("Every trace file begins with two `#` comment lines that say the data are\n")
 	p("synthetic and give the seed, device, condition and biases. Columns: time in\n")
 	p("seconds (k·%g s, k = 0..%d) and Id in amperes, printed with %d significant\n", Interval, Samples-1, Digits)
-	p("digits. Three layouts show the range of the reader (`tracesift/trace`):\n\n")
+	p("digits. Three layouts show the range of the reader (`github.com/tracesift/tracesift/trace`):\n\n")
 	p("- plain CSV: comma-delimited, decimal point, header `time (s),Id (A)`, LF line\n")
 	p("  ends (most files);\n")
 	p("- European instrument export (all traces of D06, \"bench B\"): semicolon-delimited,\n")
@@ -87,7 +87,7 @@ func Readme(specs []Spec) ([]byte, error) {
 	p("  Class **stochastic**, like every fresh trace.\n")
 	p("- **Current instability** (stressed, Vg = 1.20 V, D01..D05; D06 does not\n")
 	p("  develop one and stays stochastic): the observed coordinate of a deterministic\n")
-	p("  system from `tracesift/generators`, standardised over the record and scaled to\n")
+	p("  system from `github.com/tracesift/tracesift/generators`, standardised over the record and scaled to\n")
 	p("  an rms modulation (depth) of a few per cent of the mean current; each\n")
 	p("  generator sample (the system's own dt) becomes one %g ms sample, which puts\n", 1e3*Interval)
 	p("  the dominant frequencies between a few tens of Hz (lobe or scroll switching\n")

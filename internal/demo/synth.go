@@ -5,7 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Components are the parts of one synthesized trace, all in amperes. The

@@ -10,7 +10,7 @@ import (
 	"path/filepath"
 	"strconv"
 
-	"tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/internal/atomicfile"
 )
 
 // Write generates the whole data set into dir: every trace file at its

@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"math"
 
-	"tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
 
 func ExampleFloat() {

@@ -7,7 +7,7 @@
 //
 //	go run testdata/demo/mkdemo.go
 //
-// The generation logic lives in tracesift/internal/demo, whose test checks
+// The generation logic lives in github.com/tracesift/tracesift/internal/demo, whose test checks
 // that the committed files are exactly what this script produces.
 package main
 
@@ -18,7 +18,7 @@ import (
 	"path/filepath"
 	"runtime"
 
-	"tracesift/internal/demo"
+	"github.com/tracesift/tracesift/internal/demo"
 )
 
 func main() {

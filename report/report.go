@@ -8,12 +8,12 @@ import (
 	"strings"
 	"sync"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/features/increments"
-	"tracesift/features/ordinal"
-	"tracesift/features/surrogate"
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/increments"
+	"github.com/tracesift/tracesift/features/ordinal"
+	"github.com/tracesift/tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/trace"
 )
 
 // Defaults used when an Options field is left at its zero value, and the

@@ -4,9 +4,9 @@ import (
 	"fmt"
 	"os"
 
-	"tracesift/benchmarks/report"
-	"tracesift/classifier"
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/report"
+	"github.com/tracesift/tracesift/trace"
 )
 
 // Build a report of one capture with a lab model and write it as HTML.

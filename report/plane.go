@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"math/rand/v2"
 
-	"tracesift/features/ordinal"
-	"tracesift/generators"
+	"github.com/tracesift/tracesift/features/ordinal"
+	"github.com/tracesift/tracesift/generators"
 )
 
 // Reference is a system drawn on the complexity–entropy plane for

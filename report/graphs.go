@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"tracesift/features/visibility"
+	"github.com/tracesift/tracesift/features/visibility"
 )
 
 // GraphPanel holds what the report draws of one visibility graph: the

@@ -8,9 +8,9 @@ import (
 	"strconv"
 	"strings"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/surrogate"
 )
 
 // Section ids, in the order the report shows them.

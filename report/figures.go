@@ -6,8 +6,8 @@ import (
 	"strconv"
 	"strings"
 
-	"tracesift/classifier"
-	"tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features/surrogate"
 )
 
 // Colours: one per class, and a few neutral inks. Chosen for this report;

@@ -3,8 +3,8 @@ package report
 import (
 	"sync"
 
-	"tracesift/features"
-	"tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/surrogate"
 )
 
 // runDeterminism runs the determinism test (surrogate.Determinism, the test

@@ -14,11 +14,11 @@ import (
 	"sync"
 	"testing"
 
-	"tracesift/classifier"
-	"tracesift/features"
-	"tracesift/features/surrogate"
-	"tracesift/generators"
-	"tracesift/trace"
+	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/features/surrogate"
+	"github.com/tracesift/tracesift/generators"
+	"github.com/tracesift/tracesift/trace"
 )
 
 // testModel is a small forest trained once per test binary: 40 series per
