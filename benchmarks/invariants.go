@@ -385,7 +385,7 @@ func invariantSpecs() ([]invariantSpec, error) {
 	rsEst := "scaling.RescaledRange (Anis–Lloyd correction, blocks 50..n/4)"
 	for _, h := range []float64{0.3, 0.5, 0.7, 0.9} {
 		direct(invariantSpec{id: fmt.Sprintf("hurst_rs/fgn@h=%g", h), system: "fgn", params: map[string]float64{"h": h}, name: "hurst_rs",
-			estimator: rsEst, value: h, source: "Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111 (memory): H with small-sample correction",
+			estimator: rsEst, value: h, source: "Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111 (confirmed: neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py): H with small-sample correction",
 			check: CheckValue, tol: fixedTol(0.1), tolSource: tolRS, n: n14, measure: measureRS,
 			note: "R/S is known to underestimate strongly persistent noise"})
 	}

@@ -160,7 +160,7 @@ func runPlane(o Options) (*PlaneResult, error) {
 	res := &PlaneResult{
 		Order:  o.PlaneOrder,
 		Length: o.PlaneLength,
-		Source: "Rosso et al., Phys. Rev. Lett. 99 (2007) 154102; bounds: Martin, Plastino & Rosso, Physica A 369 (2006) 439 (memory)",
+		Source: "Rosso et al., Phys. Rev. Lett. 99 (2007) 154102; bounds: Martin, Plastino & Rosso, Physica A 369 (2006) 439 (checked: search.r-project.org/CRAN/refmans/statcomp/html/maxd6.html)",
 	}
 	for _, p := range lower {
 		res.Lower = append(res.Lower, [2]Float{Float(p.Entropy), Float(p.Complexity)})

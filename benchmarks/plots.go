@@ -1,20 +1,21 @@
 package benchmarks
 
 import (
+	"cmp"
 	"fmt"
 	"image/color"
 	"io"
 	"math"
-	"strconv"
+	"slices"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/plotutil"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
-	"gonum.org/v1/plot/vg/vgimg"
 
 	"github.com/tracesift/tracesift/classifier"
+	"github.com/tracesift/tracesift/report/figure"
 )
 
 // Figure is one PNG plot of a Result.
@@ -56,7 +57,7 @@ func Figures(r *Result) []Figure {
 	}
 	if p := r.Plane; p != nil && len(p.Points) > 0 {
 		out = append(out, Figure{"complexity_entropy.png",
-			fmt.Sprintf("Complexity–entropy plane (order %d) with every reference system at its default parameters, coloured by class, between the plane's bounds (Rosso et al. 2007).", p.Order),
+			fmt.Sprintf("Complexity–entropy plane (order %d) with every reference system at its default parameters, coloured by class, between the plane's bounds (Rosso et al. 2007). Systems whose points coincide share one label; a label set away from its point has a leader line.", p.Order),
 			func(w io.Writer) error { return plotPlane(w, p) }})
 	}
 	if t := r.Throughput; t != nil && len(t.Operations) > 0 {
@@ -80,33 +81,26 @@ func colourOf(class string, i int) color.Color {
 	return plotutil.Color(i)
 }
 
-func render(w io.Writer, p *plot.Plot, width, height vg.Length) error {
-	wt, err := p.WriterTo(width, height, "png")
-	if err != nil {
-		return err
+// xys splits points into their coordinates (for figure.Plot's Avoid).
+func xys(pts plotter.XYs) (xs, ys []float64) {
+	for _, p := range pts {
+		xs = append(xs, p.X)
+		ys = append(ys, p.Y)
 	}
-	_, err = wt.WriteTo(w)
-	return err
+	return xs, ys
 }
 
-// renderLegendRight draws p with its legend in a column of its own on the
-// right, so the legend never hides data.
-func renderLegendRight(w io.Writer, p *plot.Plot, width, height, legendWidth vg.Length) error {
-	img := vgimg.NewWith(vgimg.UseWH(width, height), vgimg.UseBackgroundColor(color.White))
-	dc := draw.New(img)
-	leg := p.Legend
-	p.Legend = plot.NewLegend()
-	p.Draw(draw.Crop(dc, 0, -legendWidth, 0, 0))
-	leg.Top, leg.Left = true, true
-	leg.YOffs = -vg.Points(24)
-	leg.Draw(draw.Crop(dc, width-legendWidth+vg.Points(6), 0, 0, 0))
-	_, err := vgimg.PngCanvas{Canvas: img}.WriteTo(w)
-	return err
+// avoidLinePoints marks a line with markers at its points as something
+// the legend must not cover.
+func avoidLinePoints(p *figure.Plot, pts plotter.XYs, r vg.Length) {
+	xs, ys := xys(pts)
+	p.AvoidLine(xs, ys)
+	p.Avoid(r, xs, ys)
 }
 
 // plotInvariants draws each check's deviation in tolerance units.
 func plotInvariants(w io.Writer, rows []InvariantRow) error {
-	p := plot.New()
+	p := figure.NewPlot()
 	p.Title.Text = "Invariant recovery (deviation / tolerance)"
 	p.X.Label.Text = "(median estimate − published value) / tolerance"
 	const clamp = 3.0
@@ -148,6 +142,7 @@ func plotInvariants(w io.Writer, rows []InvariantRow) error {
 		pt := plotter.XY{X: m, Y: float64(k)}
 		bars = append(bars, pt)
 		errs = append(errs, struct{ Low, High float64 }{m - math.Min(lo, m), math.Max(hi, m) - m})
+		p.AvoidLine([]float64{math.Min(lo, m), math.Max(hi, m)}, []float64{float64(k), float64(k)})
 		if r.Within {
 			pts = append(pts, pt)
 		} else {
@@ -172,6 +167,7 @@ func plotInvariants(w io.Writer, rows []InvariantRow) error {
 	}
 	zero.LineStyle.Dashes = []vg.Length{vg.Points(3), vg.Points(3)}
 	p.Add(zero)
+	p.AvoidLine([]float64{0, 0}, []float64{-0.5, float64(k) - 0.5})
 	if len(bars) > 0 {
 		eb, err := plotter.NewXErrorBars(struct {
 			plotter.XYs
@@ -190,7 +186,8 @@ func plotInvariants(w io.Writer, rows []InvariantRow) error {
 		sc.GlyphStyle.Shape = draw.CircleGlyph{}
 		sc.GlyphStyle.Color = color.RGBA{G: 100, A: 255}
 		p.Add(sc)
-		p.Legend.Add("within tolerance", sc)
+		p.AddLegend("within tolerance", sc)
+		p.Avoid(vg.Points(4), xysX(pts), xysY(pts))
 	}
 	if len(out) > 0 {
 		sc, err := plotter.NewScatter(out)
@@ -201,32 +198,34 @@ func plotInvariants(w io.Writer, rows []InvariantRow) error {
 		sc.GlyphStyle.Radius = vg.Points(4)
 		sc.GlyphStyle.Color = color.RGBA{R: 200, A: 255}
 		p.Add(sc)
-		p.Legend.Add("outside tolerance", sc)
+		p.AddLegend("outside tolerance", sc)
+		p.Avoid(vg.Points(5), xysX(out), xysY(out))
 	}
 	p.X.Min, p.X.Max = -clamp-0.2, clamp+0.2
-	var ticks []plot.Tick
+	var tv []float64
 	for t := -clamp; t <= clamp; t++ {
-		ticks = append(ticks, plot.Tick{Value: t, Label: strconv.FormatFloat(t, 'f', 0, 64)})
+		tv = append(tv, t)
 	}
-	p.X.Tick.Marker = plot.ConstantTicks(ticks)
-	p.Legend.Top = true
-	p.Y.Tick.Label.Font.Size = vg.Points(7)
-	return render(w, p, 8*vg.Inch, vg.Length(1.2+0.17*float64(k))*vg.Inch)
+	p.X.Tick.Marker = figure.ValueTicks(tv, nil)
+	return p.WritePNG(w, 8*vg.Inch, vg.Length(1.3+0.19*float64(k))*vg.Inch)
 }
+
+func xysX(pts plotter.XYs) []float64 { xs, _ := xys(pts); return xs }
+func xysY(pts plotter.XYs) []float64 { _, ys := xys(pts); return ys }
 
 // plotAccuracy draws accuracy against length (byLength) or SNR.
 func plotAccuracy(w io.Writer, c *ClassificationResult, byLength bool) error {
-	p := plot.New()
+	p := figure.NewPlot()
 	var xs []float64
 	var scores []Score
 	if byLength {
 		p.Title.Text = "Accuracy against series length"
 		p.X.Label.Text = "series length (samples)"
 		p.X.Scale = plot.LogScale{}
-		p.X.Tick.Marker = plot.ConstantTicks(lengthTicks(c.Lengths))
 		for _, l := range c.Lengths {
 			xs = append(xs, float64(l))
 		}
+		p.X.Tick.Marker = figure.ValueTicks(xs, nil)
 		scores = c.ByLength
 	} else {
 		p.Title.Text = "Accuracy against signal-to-noise ratio"
@@ -268,18 +267,11 @@ func plotAccuracy(w io.Writer, c *ClassificationResult, byLength bool) error {
 		ln.LineStyle.Dashes = l.dash
 		sc.GlyphStyle.Shape = plotutil.Shape(k)
 		p.Add(ln, sc)
-		p.Legend.Add(l.name, ln, sc)
+		p.AddLegend(l.name, ln, sc)
+		avoidLinePoints(p, pts, sc.GlyphStyle.Radius)
 	}
 	p.Add(plotter.NewGrid())
-	return renderLegendRight(w, p, 8.5*vg.Inch, 4.5*vg.Inch, 2*vg.Inch)
-}
-
-func lengthTicks(ls []int) []plot.Tick {
-	var t []plot.Tick
-	for _, l := range ls {
-		t = append(t, plot.Tick{Value: float64(l), Label: strconv.Itoa(l)})
-	}
-	return t
+	return p.WritePNG(w, 7*vg.Inch, 4.5*vg.Inch)
 }
 
 // snrAxis places the SNRs on a linear axis, with "clean" (+Inf, or NaN
@@ -293,27 +285,25 @@ func snrAxis(snrs []Float) ([]float64, plot.Ticker) {
 		}
 	}
 	var xs []float64
-	var ticks []plot.Tick
+	var labels []string
 	for _, s := range snrs {
-		v := float64(s)
-		label := strconvG(v)
+		v, label := float64(s), ""
 		if math.IsInf(v, 1) || math.IsNaN(v) {
 			v, label = top+10, "clean"
 		}
 		xs = append(xs, v)
-		ticks = append(ticks, plot.Tick{Value: v, Label: label})
+		labels = append(labels, label)
 	}
-	return xs, plot.ConstantTicks(ticks)
+	return xs, figure.ValueTicks(xs, labels)
 }
 
 // plotDegrees draws P(k) on a log y axis with the i.i.d. law.
 func plotDegrees(w io.Writer, d *DegreeResult) error {
-	p := plot.New()
+	p := figure.NewPlot()
 	p.Title.Text = fmt.Sprintf("HVG degree distributions (n = %d)", d.Length)
 	p.X.Label.Text = "degree k"
 	p.Y.Label.Text = "P(k)"
-	p.Y.Scale = plot.LogScale{}
-	p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+	figure.LogAxis(&p.Y)
 	kmax := 2
 	pmin := 1.0
 	for i, s := range d.Series {
@@ -336,7 +326,8 @@ func plotDegrees(w io.Writer, d *DegreeResult) error {
 		ln.LineStyle.Color, sc.GlyphStyle.Color = c, c
 		sc.GlyphStyle.Shape = plotutil.Shape(i)
 		p.Add(ln, sc)
-		p.Legend.Add(fmt.Sprintf("%s: λ = %.3f ± %.3f", s.Label, float64(s.Lambda), float64(s.LambdaErr)), ln, sc)
+		p.AddLegend(fmt.Sprintf("%s: λ = %.3f ± %.3f", s.Label, float64(s.Lambda), float64(s.LambdaErr)), ln, sc)
+		avoidLinePoints(p, pts, sc.GlyphStyle.Radius)
 	}
 	var ref plotter.XYs
 	for k := 2; k <= kmax; k++ {
@@ -354,15 +345,19 @@ func plotDegrees(w io.Writer, d *DegreeResult) error {
 		ln.LineStyle.Width = vg.Points(1.5)
 		ln.LineStyle.Dashes = []vg.Length{vg.Points(5), vg.Points(3)}
 		p.Add(ln)
-		p.Legend.Add("i.i.d.: (1/3)(2/3)^(k−2), λ = ln(3/2)", ln)
+		p.AddLegend("i.i.d.: (1/3)(2/3)^(k−2), λ = ln(3/2)", ln)
+		xs, ys := xys(ref)
+		p.AvoidLine(xs, ys)
 	}
 	p.Add(plotter.NewGrid())
-	return renderLegendRight(w, p, 10.5*vg.Inch, 5*vg.Inch, 3.8*vg.Inch)
+	return p.WritePNG(w, 8*vg.Inch, 5*vg.Inch)
 }
 
-// plotPlane draws the complexity–entropy plane.
+// plotPlane draws the complexity–entropy plane with every system's name
+// beside its point (figure.PlaceLabels: no two names overlap; names set
+// away from their points get leader lines).
 func plotPlane(w io.Writer, pl *PlaneResult) error {
-	p := plot.New()
+	p := figure.NewPlot()
 	p.Title.Text = fmt.Sprintf("Complexity–entropy plane (order %d, n = %d)", pl.Order, pl.Length)
 	p.X.Label.Text = "normalised permutation entropy H"
 	p.Y.Label.Text = "statistical complexity C"
@@ -377,10 +372,11 @@ func plotPlane(w io.Writer, pl *PlaneResult) error {
 		}
 		ln.LineStyle.Color = color.Gray{Y: 120}
 		p.Add(ln)
+		xs, ys := xys(pts)
+		p.AvoidLine(xs, ys)
 	}
+	const radius = 3
 	classes := []string{"chaotic", "regular", "stochastic"}
-	var all plotter.XYs
-	var labels []string
 	for i, cl := range classes {
 		var pts plotter.XYs
 		for _, q := range pl.Points {
@@ -397,39 +393,172 @@ func plotPlane(w io.Writer, pl *PlaneResult) error {
 		}
 		sc.GlyphStyle.Color = colourOf(cl, i)
 		sc.GlyphStyle.Shape = plotutil.Shape(i)
-		sc.GlyphStyle.Radius = vg.Points(3)
+		sc.GlyphStyle.Radius = vg.Points(radius)
 		p.Add(sc)
-		p.Legend.Add(cl, sc)
+		p.AddLegend(cl, sc)
+		xs, ys := xys(pts)
+		p.Avoid(vg.Points(radius), xs, ys)
 	}
-	for _, q := range pl.Points {
-		all = append(all, plotter.XY{X: float64(q.Entropy), Y: float64(q.Complexity)})
-		labels = append(labels, q.System)
-	}
-	lb, err := plotter.NewLabels(plotter.XYLabels{XYs: all, Labels: labels})
-	if err != nil {
-		return err
-	}
-	for i := range lb.TextStyle {
-		lb.TextStyle[i].Font.Size = vg.Points(6)
-		lb.TextStyle[i].Color = color.Gray{Y: 60}
-	}
-	lb.Offset = vg.Point{X: vg.Points(3), Y: vg.Points(2)}
-	p.Add(lb)
 	p.X.Min, p.X.Max = 0, 1.05
 	p.Y.Min = 0
-	p.Legend.Left = true
-	p.Legend.Top = true
-	return render(w, p, 8*vg.Inch, 6*vg.Inch)
+	p.Overlay = func(c draw.Canvas, m figure.Mapping) { planeLabels(c, m, pl, radius) }
+	return p.WritePNG(w, 10*vg.Inch, 7.5*vg.Inch)
+}
+
+// planeLabels writes the system names beside their points on the plane.
+// Points whose markers overlap (closer than a marker's diameter) share
+// one label listing their names, a few to a line, since no placement can
+// tell them apart.
+func planeLabels(c draw.Canvas, m figure.Mapping, pl *PlaneResult, radius float64) {
+	sty := plot.New().Legend.TextStyle
+	sty.Font.Size = vg.Points(7)
+	sty.Color = color.Gray{Y: 50}
+	ext := sty.FontExtents()
+	lineH := float64(sty.Font.Size) * 1.15
+	var at []figure.Point
+	var names []string
+	var obstacles []figure.Rect
+	var curves [][]figure.Point
+	for _, b := range [][][2]Float{pl.Lower, pl.Upper} {
+		var l []figure.Point
+		for _, q := range b {
+			if pt, ok := m.Point(float64(q[0]), float64(q[1])); ok {
+				l = append(l, pt)
+			}
+		}
+		curves = append(curves, l)
+	}
+	for _, q := range pl.Points {
+		pt, ok := m.Point(float64(q.Entropy), float64(q.Complexity))
+		if !ok {
+			continue
+		}
+		at = append(at, pt)
+		names = append(names, q.System)
+		obstacles = append(obstacles, figure.Around(pt, radius+0.5))
+	}
+	if m.HasLegend {
+		obstacles = append(obstacles, m.Legend)
+	}
+	groups := closeGroups(at, 2*radius)
+	type group struct {
+		lines []string
+		box   figure.TextBox
+		crowd int
+	}
+	gs := make([]group, len(groups))
+	for k, members := range groups {
+		var cx, cy float64
+		var line string
+		var g group
+		for i, j := range members {
+			cx += at[j].X / float64(len(members))
+			cy += at[j].Y / float64(len(members))
+			switch {
+			case i == 0:
+				line = names[j]
+			case i%3 == 0:
+				g.lines = append(g.lines, line+",")
+				line = names[j]
+			default:
+				line += ", " + names[j]
+			}
+		}
+		g.lines = append(g.lines, line)
+		w := 0.0
+		for _, l := range g.lines {
+			w = math.Max(w, float64(sty.Width(l)))
+		}
+		g.box = figure.TextBox{Anchor: figure.Point{X: cx, Y: cy}, Width: w,
+			Ascent: float64(ext.Ascent) + float64(len(g.lines)-1)*lineH, Descent: float64(ext.Descent)}
+		gs[k] = g
+	}
+	// Labels in crowded places are placed first, while the space around
+	// them is free; isolated points find room beside themselves later.
+	for i := range gs {
+		for j := range gs {
+			if dx, dy := gs[i].box.Anchor.X-gs[j].box.Anchor.X, gs[i].box.Anchor.Y-gs[j].box.Anchor.Y; j != i && dx*dx+dy*dy < 20*20 {
+				gs[i].crowd++
+			}
+		}
+	}
+	slices.SortStableFunc(gs, func(a, b group) int { return cmp.Compare(b.crowd, a.crowd) })
+	boxes := make([]figure.TextBox, len(gs))
+	for k, g := range gs {
+		boxes[k] = g.box
+	}
+	placed := figure.PlaceLabels(boxes, figure.LabelOptions{Bounds: m.Data, Obstacles: obstacles,
+		Rings: 30, RingStep: 9, LeadersBlock: true, Lines: curves})
+	leader := draw.LineStyle{Color: color.Gray{Y: 120}, Width: vg.Points(0.6)}
+	for k, at := range placed {
+		if at.Placed && at.Leader {
+			a, e := m.Canvas(boxes[k].Anchor), m.Canvas(at.LeaderEnd)
+			c.StrokeLine2(leader, a.X, a.Y, e.X, e.Y)
+		}
+	}
+	for k, at := range placed {
+		if !at.Placed {
+			continue
+		}
+		// text.Plain puts the baseline of one line (size s, ascent a)
+		// s − a above the point it is given; lines run upwards from the
+		// origin's baseline.
+		n := len(gs[k].lines)
+		for i, l := range gs[k].lines {
+			o := m.Canvas(figure.Point{X: at.Origin.X, Y: at.Origin.Y - float64(n-1-i)*lineH})
+			o.Y -= sty.Font.Size - ext.Ascent
+			c.FillText(sty, o, l)
+		}
+	}
+}
+
+// closeGroups joins points closer than d (single linkage) and returns the
+// groups as index lists in order of their first member, members in order.
+func closeGroups(pts []figure.Point, d float64) [][]int {
+	parent := make([]int, len(pts))
+	for i := range parent {
+		parent[i] = i
+	}
+	var find func(int) int
+	find = func(i int) int {
+		for parent[i] != i {
+			parent[i] = parent[parent[i]]
+			i = parent[i]
+		}
+		return i
+	}
+	for i := range pts {
+		for j := i + 1; j < len(pts); j++ {
+			if math.Hypot(pts[i].X-pts[j].X, pts[i].Y-pts[j].Y) < d {
+				if a, b := find(i), find(j); a != b {
+					parent[max(a, b)] = min(a, b)
+				}
+			}
+		}
+	}
+	index := map[int]int{}
+	var out [][]int
+	for i := range pts {
+		r := find(i)
+		k, ok := index[r]
+		if !ok {
+			k = len(out)
+			index[r] = k
+			out = append(out, nil)
+		}
+		out[k] = append(out[k], i)
+	}
+	return out
 }
 
 // plotThroughput draws samples per second against n on log–log axes.
 func plotThroughput(w io.Writer, t *ThroughputResult) error {
-	p := plot.New()
+	p := figure.NewPlot()
 	p.Title.Text = fmt.Sprintf("Throughput (%s/%s, GOMAXPROCS %d; machine-dependent)", t.Machine.GOOS, t.Machine.GOARCH, t.Machine.GOMAXPROCS)
 	p.X.Label.Text = "series length n (samples)"
 	p.Y.Label.Text = "samples per second"
-	p.X.Scale, p.Y.Scale = plot.LogScale{}, plot.LogScale{}
-	p.X.Tick.Marker, p.Y.Tick.Marker = plot.LogTicks{Prec: -1}, plot.LogTicks{Prec: -1}
+	figure.LogAxis(&p.X)
+	figure.LogAxis(&p.Y)
 	for i, op := range t.Operations {
 		var pts plotter.XYs
 		for _, pt := range op.Points {
@@ -449,15 +578,16 @@ func plotThroughput(w io.Writer, t *ThroughputResult) error {
 		ln.LineStyle.Width = vg.Points(1.5)
 		sc.GlyphStyle.Shape = plotutil.Shape(i)
 		p.Add(ln, sc)
-		p.Legend.Add(fmt.Sprintf("%s (p = %.2f)", op.Name, float64(op.Exponent)), ln, sc)
+		p.AddLegend(fmt.Sprintf("%s (p = %.2f)", op.Name, float64(op.Exponent)), ln, sc)
+		avoidLinePoints(p, pts, sc.GlyphStyle.Radius)
 	}
 	p.Add(plotter.NewGrid())
-	return renderLegendRight(w, p, 8.5*vg.Inch, 4.5*vg.Inch, 1.8*vg.Inch)
+	return p.WritePNG(w, 7*vg.Inch, 4.5*vg.Inch)
 }
 
 // plotReliability draws the reliability diagram of a calibration.
 func plotReliability(w io.Writer, c classifier.Calibration) error {
-	p := plot.New()
+	p := figure.NewPlot()
 	p.Title.Text = fmt.Sprintf("Reliability (ECE %.3f, Brier %.3f)", c.ECE, c.Brier)
 	p.X.Label.Text = "mean top-class probability"
 	p.Y.Label.Text = "accuracy"
@@ -469,7 +599,8 @@ func plotReliability(w io.Writer, c classifier.Calibration) error {
 	diag.LineStyle.Color = color.Gray{Y: 140}
 	diag.LineStyle.Dashes = []vg.Length{vg.Points(4), vg.Points(3)}
 	p.Add(diag)
-	p.Legend.Add("perfect calibration", diag)
+	p.AddLegend("perfect calibration", diag)
+	p.AvoidLine([]float64{0, 1}, []float64{0, 1})
 	var pts plotter.XYs
 	total := 0
 	for _, b := range c.Bins {
@@ -478,8 +609,9 @@ func plotReliability(w io.Writer, c classifier.Calibration) error {
 			pts = append(pts, plotter.XY{X: b.Confidence, Y: b.Accuracy})
 		}
 	}
+	const size = 5 * vg.Inch
 	if len(pts) == 0 {
-		return render(w, p, 5*vg.Inch, 5*vg.Inch)
+		return p.WritePNG(w, size, size)
 	}
 	ln, err := plotter.NewLine(pts)
 	if err != nil {
@@ -500,10 +632,12 @@ func plotReliability(w io.Writer, c classifier.Calibration) error {
 		sc.GlyphStyle.Radius = vg.Points(2 + 10*math.Sqrt(float64(b.Rows)/float64(total)))
 		sc.GlyphStyle.Color = color.Black
 		p.Add(sc)
+		p.Avoid(sc.GlyphStyle.Radius, []float64{pts[k].X}, []float64{pts[k].Y})
 		k++
 	}
-	p.Legend.Add("held-out predictions", ln)
-	p.Legend.Top, p.Legend.Left = false, false // bottom right, clear of the curve
+	p.AddLegend("held-out predictions", ln)
+	xs, ys := xys(pts)
+	p.AvoidLine(xs, ys)
 	p.Add(plotter.NewGrid())
-	return render(w, p, 5*vg.Inch, 5*vg.Inch)
+	return p.WritePNG(w, size, size)
 }

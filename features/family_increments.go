@@ -11,7 +11,7 @@ var incrementsFamily = family{
 	entries: []Entry{
 		{"inc_skew_abs", FamilyIncrements, "|skewness| of the increments (sign dropped so a polarity flip does not matter)", "moment estimator, standard statistics texts"},
 		{"inc_kurt", FamilyIncrements, "excess kurtosis of the increments (0 Gaussian; large for jumps and fat tails)", "moment estimator, standard statistics texts"},
-		{"inc_ks", FamilyIncrements, "Kolmogorov–Smirnov distance of the normalised increments from the fitted Gaussian", "Lilliefors, J. Am. Stat. Assoc. 62 (1967) 399 (memory)"},
+		{"inc_ks", FamilyIncrements, "Kolmogorov–Smirnov distance of the normalised increments from the fitted Gaussian", "Lilliefors, J. Am. Stat. Assoc. 62 (1967) 399 (checked: rdrr.io/cran/PoweR/man/stat0001.Lilliefors.html)"},
 		{"inc_lag1", FamilyIncrements, "lag-1 autocorrelation of the increments (−0.5 white noise, 0 random walk)", "standard result"},
 	},
 	compute: computeIncrements,

@@ -53,11 +53,11 @@ var (
 func computeNonlinear(z []float64, o Options, s *sink) {
 	embedded := []string{"lyap_max", "lyap_delay", "lyap_credible", "lyap_jump", "corr_dim", "zero_one_k", "pred_rho1", "pred_decay", "pred_rho_tau", "pred_gain_tau", "perm_entropy_tau", "stat_complexity_tau", "asym_tau", "irrev4_tau", "embed_dim", "cao_e2_dev"}
 	s.measure(func() error {
-		emb, err := nonlinear.Embed(z, featEmbed)
+		rec, err := nonlinear.Reconstruct(z, featEmbed)
 		if err != nil {
 			return fmt.Errorf("embedding: %w", err)
 		}
-		measureEmbedded(z, emb, o, s)
+		measureEmbedded(z, rec, o, s)
 		return nil
 	}, embedded...)
 	s.measure(func() error {
@@ -82,9 +82,10 @@ func computeNonlinear(z []float64, o Options, s *sink) {
 	}, "sample_entropy")
 }
 
-// measureEmbedded computes the measures that share one delay embedding.
-func measureEmbedded(z []float64, emb *nonlinear.Embedding, o Options, s *sink) {
-	fixed := emb.Fixed()
+// measureEmbedded computes the measures that share one delay embedding
+// (and the standardised series and neighbour-search structures of rec).
+func measureEmbedded(z []float64, rec *nonlinear.Reconstruction, o Options, s *sink) {
+	emb := rec.Embedding()
 	s.set("embed_dim", float64(emb.Dim))
 	if emb.Cao != nil {
 		s.set("cao_e2_dev", emb.Cao.E2Deviation)
@@ -92,7 +93,7 @@ func measureEmbedded(z []float64, emb *nonlinear.Embedding, o Options, s *sink) 
 		s.miss("dimension not chosen by Cao's method", "cao_e2_dev")
 	}
 	s.measure(func() error {
-		r, err := nonlinear.Lyapunov(z, nonlinear.LyapunovOptions{Embed: fixed, MaxRef: featLyapRefs})
+		r, err := rec.Lyapunov(nonlinear.LyapunovOptions{MaxRef: featLyapRefs})
 		if err != nil {
 			return err
 		}
@@ -112,7 +113,7 @@ func measureEmbedded(z []float64, emb *nonlinear.Embedding, o Options, s *sink) 
 		return nil
 	}, "lyap_max", "lyap_delay", "lyap_credible", "lyap_jump")
 	s.measure(func() error {
-		r, err := nonlinear.CorrelationDimension(z, nonlinear.CorrDimOptions{Embed: fixed, MaxPairs: featD2Pairs})
+		r, err := rec.CorrelationDimension(nonlinear.CorrDimOptions{MaxPairs: featD2Pairs})
 		switch {
 		case err != nil:
 			return err
@@ -135,7 +136,7 @@ func measureEmbedded(z []float64, emb *nonlinear.Embedding, o Options, s *sink) 
 	// (pred_rho_tau), capped at 50 samples.
 	horizon := max(10, min(emb.Delay, 50))
 	s.measure(func() error {
-		r, err := nonlinear.Prediction(z, nonlinear.PredictionOptions{Embed: fixed, MaxHorizon: horizon})
+		r, err := rec.Prediction(nonlinear.PredictionOptions{MaxHorizon: horizon})
 		if err != nil {
 			return err
 		}

@@ -13,7 +13,7 @@ var ordinalFamily = family{
 		{"stat_complexity", FamilyOrdinal, "Jensen–Shannon statistical complexity, order 4 (0 for i.i.d.; high for chaos)", "Rosso et al., Phys. Rev. Lett. 99 (2007) 154102"},
 		{"perm_entropy_d6", FamilyOrdinal, "normalised permutation entropy, order 6", "Bandt & Pompe (2002)"},
 		{"stat_complexity_d6", FamilyOrdinal, "Jensen–Shannon statistical complexity, order 6", "Rosso et al. (2007)"},
-		{"complexity_rel", FamilyOrdinal, "order-6 complexity as a fraction of the way from the lowest to the highest complexity possible at its entropy", "Martin, Plastino & Rosso, Physica A 369 (2006) 439 (memory)"},
+		{"complexity_rel", FamilyOrdinal, "order-6 complexity as a fraction of the way from the lowest to the highest complexity possible at its entropy", "Martin, Plastino & Rosso, Physica A 369 (2006) 439 (checked: search.r-project.org/CRAN/refmans/statcomp/html/maxd6.html)"},
 		{"perm_missing_excess", FamilyOrdinal, "order-5 patterns never seen, beyond those an i.i.d. series of this length misses by chance, as a fraction of 5! (forbidden patterns; a quantised trace is read after Extract's dither, as if seen through noise of variance q²/6)", "Amigó, Zambrano & Sanjuán, EPL 79 (2007) 50001"},
 	},
 	compute: computeOrdinal,

@@ -16,7 +16,7 @@ var scalingFamily = family{
 		{"hurst_rs", FamilyScaling, "rescaled-range Hurst exponent with the Anis–Lloyd small-sample correction", "Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111"},
 		{"spectral_beta", FamilyScaling, "spectral exponent β of S(f) ~ f^−β from a Welch periodogram (white 0, fGn 2H−1, Brownian 2)", "Welch (1967); standard result for these processes"},
 		{"spectral_r2", FamilyScaling, "r² of the log–log spectral fit: low for line spectra and humps", "fit quality, common practice"},
-		{"spectral_flatness", FamilyScaling, "Wiener entropy of the Welch spectrum: geometric over arithmetic mean power (1 flat, → 0 for lines)", "Johnston, IEEE J. Sel. Areas Commun. 6 (1988) 314 (memory)"},
+		{"spectral_flatness", FamilyScaling, "Wiener entropy of the Welch spectrum: geometric over arithmetic mean power (1 flat, → 0 for lines)", "Johnston, IEEE J. Sel. Areas Commun. 6 (1988) 314 (checked: uk.mathworks.com/help/audio/ref/spectralflatness.html)"},
 		{"spectral_peak", FamilyScaling, "fraction of the spectral power in the strongest three bins (near 1 for periodic signals)", "spectral concentration, common practice"},
 		{"spectral_lines", FamilyScaling, "fraction of the variance in narrow spectral lines (bins ≥ 20× a local power-law floor, Welch spectrum of half-length segments): → 1 for periodic and quasi-periodic motion, ≈ 0 for noise of any colour and for mixing chaos", "point versus continuous spectrum, Bergé, Pomeau & Vidal, Order within Chaos (1984) (memory); estimator documented in features/scaling"},
 		{"acf_decay", FamilyScaling, "autocorrelation 1/e decay time in samples, log10 (lower bound when the ACF never decays)", "Box & Jenkins, Time Series Analysis (1970); common practice"},

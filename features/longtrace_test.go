@@ -101,7 +101,7 @@ func TestDefaultWindowCutsLongTraces(t *testing.T) {
 	// Gaussian white noise: every ordinal pattern is equally likely, so the
 	// normalised permutation entropy is 1 (Bandt & Pompe, Phys. Rev. Lett.
 	// 88 (2002) 174102) up to the plug-in estimator's bias, (K − 1)/(2N)
-	// nats for K patterns in N samples (Miller 1955, memory): 23/(2·5·10^5)
+	// nats for K patterns in N samples (Miller 1955; as in the R entropy package's entropy.MillerMadow, rdrr.io/cran/entropy/src/R/entropy.MillerMadow.R): 23/(2·5·10^5)
 	// / ln 24 ≈ 7·10^-6 here.
 	if pe, ok := v.Get("perm_entropy"); !ok || math.Abs(pe-1) > 1e-4 {
 		t.Errorf("perm_entropy %v (present %v), want 1 within 1e-4", pe, ok)

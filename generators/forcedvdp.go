@@ -8,7 +8,7 @@ import (
 
 // ForcedVanDerPol is the periodically forced van der Pol oscillator
 // x” − μ(1 − x²)x' + x = A·cos(ω·t) (van der Pol & van der Mark, Nature
-// 120 (1927) 363 (memory)), written autonomously as x' = y,
+// 120 (1927) 363; volume and year as in zbmath.org Zbl 0793.34028, page (memory)), written autonomously as x' = y,
 // y' = μ(1 − x²)y − x + A·cos θ, θ' = ω, with the forcing phase θ reduced
 // modulo 2π between samples. Two frequencies compete, the limit cycle's
 // and the forcing's: the motion is quasi-periodic (a 2-torus, two zero

@@ -7,7 +7,7 @@ import (
 
 // TestJerk: the exponents sum to −A (analytic: constant divergence,
 // tolerance 1e-3); at A = 2.017, λ1 = 0.0550 per time unit (Sprott, Phys.
-// Lett. A 228 (1997) 271 (memory)) within 5%, and A = 2.1 is periodic.
+// Lett. A 228 (1997) 271 (memory); his 2003 table gives 0.0551, DuncDennis/rescomp rescomp/simulations_new.py) within 5%, and A = 2.1 is periodic.
 // Drawn starts stay in the basin of the bounded attractor at both ends of
 // the range (every one of 20 seeds).
 func TestJerk(t *testing.T) {

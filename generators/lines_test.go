@@ -24,7 +24,7 @@ func lineAmplitude(x []float64, f float64) float64 {
 
 // blackmanHarris returns the 4-term Blackman–Harris window of length n,
 // whose sidelobes lie 92 dB below the main lobe (Harris, Proc. IEEE 66
-// (1978) 51 (memory)), so weak lines stand clear of strong ones.
+// (1978) 51, citation as in uk.mathworks.com/help/signal/ref/blackmanharris.html; the 92 dB figure (memory)), so weak lines stand clear of strong ones.
 func blackmanHarris(n int) []float64 {
 	w := make([]float64, n)
 	for i := range w {

@@ -11,7 +11,7 @@ import (
 // e^{−λ} (Knuth, The Art of Computer Programming vol. 2, standard method;
 // λ + 1 uniforms on average). For lambda ≥ 10 it uses the transformed
 // rejection method with squeeze, PTRS (Hörmann, Insurance Math. Econom. 12
-// (1993) 39 (memory)): a hat built from the transformation
+// (1993) 39; title, year and PTRS steps as in hpaulkeeler/posts PoissonLargeMean/funPoissonLargePTRS.m, journal recalled (memory)): a hat built from the transformation
 // k = ⌊(2a/u_s + b)U + λ + 0.43⌋ of a uniform U, u_s = ½ − |U|, accepted
 // quickly inside the squeeze (u_s ≥ 0.07, V ≤ v_r) and otherwise by
 // comparing ln V + ln(1/α) − ln(a/u_s² + b) with ln P(k) = −λ + k ln λ −

@@ -12,7 +12,7 @@ import (
 // noise") made by spectral synthesis. Variant: random Gaussian Fourier
 // amplitudes — the real and imaginary parts of each coefficient are
 // independent N(0, S(f_k)/2), so the modulus is Rayleigh and the phase
-// uniform (Timmer & König, Astron. Astrophys. 300 (1995) 707 (memory)) —
+// uniform (Timmer & König, Astron. Astrophys. 300 (1995) 707; confirmed: pypi.org/project/colorednoise) —
 // rather than fixed amplitudes with random phases, which would make every
 // periodogram ordinate equal to S(f_k) and the series not Gaussian-process
 // like. The zero-frequency term is 0.

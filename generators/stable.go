@@ -12,7 +12,7 @@ import (
 //	E e^{itX} = exp(−|t|^α [1 + iβ tan(πα/2) sign(t) (|t|^{1−α} − 1)])   (α ≠ 1)
 //	E e^{itX} = exp(−|t| [1 + iβ (2/π) sign(t) ln|t|])                   (α = 1)
 //
-// (Nolan, Stat. Probab. Lett. 38 (1998) 187 (memory)). α = 2 is the
+// (Nolan, Stat. Probab. Lett. 38 (1998) 187 (memory); S0 form as in docs.scipy.org scipy.stats.levy_stable). α = 2 is the
 // Gaussian N(0, 2) (the σ = 1 convention of the stable family means
 // variance 2σ²), α = 1 with β = 0 the standard Cauchy law; α < 2 has tails
 // P(|X| > x) ~ x^{−α}, so no variance, and no mean for α ≤ 1. S0 is
@@ -21,7 +21,7 @@ import (
 //
 // Draws use the Chambers–Mallows–Stuck transformation (Chambers, Mallows &
 // Stuck, J. Am. Stat. Assoc. 71 (1976) 340) in the form of Weron (Stat.
-// Probab. Lett. 28 (1996) 165 (memory)): with V uniform on (−π/2, π/2) and
+// Probab. Lett. 28 (1996) 165; confirmed: search.r-project.org/CRAN/refmans/alphastable/html/urstab.html): with V uniform on (−π/2, π/2) and
 // W ~ Exp(1), B = arctan(β tan(πα/2))/α and S = (1 + β² tan²(πα/2))^{1/(2α)},
 //
 //	X1 = S · sin(α(V + B)) / (cos V)^{1/α} · (cos(V − α(V + B))/W)^{(1−α)/α}   (α ≠ 1)

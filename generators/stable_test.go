@@ -57,7 +57,7 @@ func TestStableClosedForms(t *testing.T) {
 }
 
 // stableCF is the S0 characteristic function of unit scale (Nolan, Stat.
-// Probab. Lett. 38 (1998) 187 (memory)).
+// Probab. Lett. 38 (1998) 187 (memory); the S0 form as in docs.scipy.org scipy.stats.levy_stable).
 func stableCF(alpha, beta, t float64) complex128 {
 	at := math.Abs(t)
 	sg := math.Copysign(1, t)

@@ -8,7 +8,7 @@ import (
 // TestStandardMapExponents: the map preserves area (det J = 1), so
 // λ1 + λ2 = 0 for every orbit (analytic; the Gram–Schmidt norms multiply
 // to det J each iteration, tolerance 1e-9); deep in the chaotic regime
-// λ1 ≈ ln(K/2) (Chirikov, Phys. Rep. 52 (1979) 263 (memory)), an
+// λ1 ≈ ln(K/2) (Chirikov, Phys. Rep. 52 (1979) 263, citation as in tkf/LyapunovExponents.jl src/examples/standard_map.jl; the law (memory)), an
 // asymptotic law whose corrections fall as 1/K², so it is checked at
 // K = 20 (ln 10 = 2.303) within 0.02.
 func TestStandardMapExponents(t *testing.T) {

@@ -38,7 +38,7 @@ const (
 
 // CliffMagnitude labels |δ| with the thresholds of Romano et al. (2006,
 // "Appropriate statistics for ordinal level data", annual meeting of the
-// Florida Association of Institutional Research; memory): negligible
+// Florida Association of Institutional Research; venue recalled (memory); thresholds as in rdrr.io/github/MHS-R/mhs/man/getCliffsD.html): negligible
 // below 0.147, small below 0.33, medium below 0.474, large otherwise.
 // These correspond to Cohen's d of 0.2, 0.5 and 0.8 for normal data.
 // NaN gives "".

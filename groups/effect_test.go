@@ -87,7 +87,7 @@ func TestEffectInvariance(t *testing.T) {
 }
 
 // TestCliffMagnitude checks the thresholds of Romano et al. (2006;
-// memory): 0.147, 0.33, 0.474.
+// thresholds as in rdrr.io/github/MHS-R/mhs/man/getCliffsD.html): 0.147, 0.33, 0.474.
 func TestCliffMagnitude(t *testing.T) {
 	for _, c := range []struct {
 		d    float64

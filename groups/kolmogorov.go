@@ -17,7 +17,7 @@ const kolmogorovMaxK = 64
 // relative accuracy of tiny p-values. Otherwise, when k = ⌊N·d⌋ + 1 ≤ 64,
 // it is 1 − P(D_N < d) with P(D_N < d) computed
 // exactly by the method of Marsaglia, Tsang & Wang, J. Stat. Softw. 8(18)
-// (2003) (memory): (N!/Nᴺ) times the central element of Hᴺ, H the
+// (2003) (checked: apache/commons-math KolmogorovSmirnovTest.java references): (N!/Nᴺ) times the central element of Hᴺ, H the
 // (2k−1)×(2k−1) matrix of Durbin (1973) built from h = k − N·d, with the
 // power taken by repeated squaring and the exponent carried separately to
 // avoid overflow. Its absolute accuracy is about 1e-13 (the subtraction

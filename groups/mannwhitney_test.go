@@ -70,7 +70,7 @@ func TestMWTextbook(t *testing.T) {
 
 // TestMWCriticalValue checks the two-sided 5 % critical value of U for
 // n = m = 10, U ≤ 23, of the standard Mann–Whitney tables (e.g. Siegel &
-// Castellan, Nonparametric Statistics (1988), table J; memory):
+// Castellan, Nonparametric Statistics (1988), table J; confirmed: numeracy-bank.net/?q=t/stt/mwu/3, n1 = n2 = 10: 23):
 // 2·P(U ≤ 23) ≤ 0.05 < 2·P(U ≤ 24).
 func TestMWCriticalValue(t *testing.T) {
 	if p := 2 * mwLowerTail(10, 10, 23); p > 0.05 {

@@ -44,7 +44,7 @@ type PlotOptions struct {
 }
 
 // palette holds the group colours: the colour-blind-safe set of Okabe &
-// Ito (2008, "Color universal design", memory), most distinct first,
+// Ito (2008, "Color universal design"; checked: search.r-project.org/CRAN/refmans/see/html/palette_okabeito.html, hex values as in EmilHvitfeldt.github.io/r-color-palettes/discrete/colorblindr/OkabeIto), most distinct first,
 // without the yellow that vanishes on white.
 var palette = []color.Color{
 	color.RGBA{0x00, 0x72, 0xB2, 0xFF}, // blue

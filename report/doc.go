@@ -35,5 +35,7 @@
 // reference systems use fixed seeds of their own), parallel work is placed
 // by index, and the figures are drawn by a small SVG writer that rounds
 // every coordinate to 0.1 px, so the same trace, model and options give the
-// same bytes.
+// same bytes. Axis ticks (one notation per axis), the placement of point
+// labels and of legends (off the drawn data) come from report/figure,
+// which the bench suite's PNG figures share.
 package report

@@ -8,6 +8,7 @@ import (
 
 	"github.com/tracesift/tracesift/classifier"
 	"github.com/tracesift/tracesift/features/surrogate"
+	fig "github.com/tracesift/tracesift/report/figure"
 )
 
 // Colours: one per class, and a few neutral inks. Chosen for this report;
@@ -52,6 +53,7 @@ func probabilityFigure(v classifier.Verdict, minProb float64) string {
 	n := float64(len(v.Classes))
 	c := newChart("fig-prob", 460, 40+28*n, scale{0, 1, false}, scale{0, n, false})
 	c.left, c.bottom, c.top, c.right = 86, 40, 8, 46
+	c.left = fitLeft(v.Classes, c.left)
 	c.title = "Class probabilities"
 	c.xlabel = "probability"
 	c.xticks = []tick{{v: 0, label: "0"}, {v: 0.25, label: "0.25"}, {v: 0.5, label: "0.5"}, {v: 0.75, label: "0.75"}, {v: 1, label: "1"}}
@@ -354,74 +356,52 @@ func planeFigure(p *PlanePanel) string {
 	}
 	c.polyline(bx, by, "#8c8c8c", 1.1, "")
 
-	// Labels are placed greedily beside their points, in the first of a
-	// few positions that does not overlap a label or point already placed.
-	type box struct{ x0, y0, x1, y1 float64 }
-	var taken []box
-	overlaps := func(b box) bool {
-		if b.x0 < c.left || b.x1 > c.left+c.plotW() || b.y0 < c.top || b.y1 > c.top+c.plotH() {
-			return true
-		}
-		for _, t := range taken {
-			if b.x0 < t.x1 && t.x0 < b.x1 && b.y0 < t.y1 && t.y0 < b.y1 {
-				return true
-			}
-		}
-		return false
-	}
+	// Labels are placed greedily beside their points (fig.PlaceLabels),
+	// the trace's first, each in the first of a few positions that does
+	// not overlap a label or point already placed; a label set further
+	// off gets a leader line to the nearest point of its box. A point with
+	// no free place stays unlabelled here (the table below the figure
+	// lists every reference with its coordinates).
 	type pt struct {
-		X, Y  float64
 		label string
 		ink   string
 		size  float64
+		bold  bool
 	}
+	var obstacles []fig.Rect
+	var boxes []fig.TextBox
 	var pts []pt
+	tx, ty := c.px(p.Trace.Entropy), c.py(p.Trace.Complexity)
+	boxes = append(boxes, fig.TextBox{Anchor: fig.Point{X: tx, Y: ty}, Width: textWidth("this trace", 11.5) * 1.1, Ascent: 11.5, Descent: 2})
+	pts = append(pts, pt{"this trace", "#111111", 11.5, true})
 	for _, r := range p.References {
 		if r.Error != "" {
 			continue
 		}
-		pts = append(pts, pt{c.px(r.Entropy), c.py(r.Complexity), r.Label, colourOf(r.Class), 10})
+		at := fig.Point{X: c.px(r.Entropy), Y: c.py(r.Complexity)}
+		obstacles = append(obstacles, fig.Around(at, 4))
+		boxes = append(boxes, fig.TextBox{Anchor: at, Width: textWidth(r.Label, 10), Ascent: 10, Descent: 2})
+		pts = append(pts, pt{r.Label, colourOf(r.Class), 10, false})
 	}
-	tx, ty := c.px(p.Trace.Entropy), c.py(p.Trace.Complexity)
-	for _, q := range pts {
-		taken = append(taken, box{q.X - 4, q.Y - 4, q.X + 4, q.Y + 4})
-	}
-	taken = append(taken, box{tx - 7, ty - 7, tx + 7, ty + 7})
-	place := func(q pt, bold bool) {
-		w := textWidth(q.label, q.size)
-		if bold {
-			w *= 1.1
+	obstacles = append(obstacles, fig.Around(fig.Point{X: tx, Y: ty}, 7))
+	placed := fig.PlaceLabels(boxes, fig.LabelOptions{
+		Bounds:    fig.Rect{X0: c.left, Y0: c.top, X1: c.left + c.plotW(), Y1: c.top + c.plotH()},
+		Obstacles: obstacles,
+	})
+	for i, at := range placed {
+		if !at.Placed {
+			continue
 		}
-		cands := []struct{ dx, dy float64 }{{7, 4}, {-7 - w, 4}, {-w / 2, -8}, {-w / 2, 15}, {7, -7}, {7, 14}, {-7 - w, -7}, {-7 - w, 14},
-			{-w / 2, -19}, {-w / 2, 26}, {12, -16}, {-12 - w, -16}, {12, 22}, {-12 - w, 22},
-			{-24 - w, -26}, {-24 - w, 30}, {-w / 2, -34}, {-40 - w, -12}, {-40 - w, -40}, {-40 - w, 44}}
-		for i, d := range cands {
-			b := box{q.X + d.dx, q.Y + d.dy - q.size, q.X + d.dx + w, q.Y + d.dy + 2}
-			if !overlaps(b) {
-				taken = append(taken, b)
-				if i >= 8 {
-					// A label set further off gets a leader line to the
-					// nearest point of its box.
-					lx := math.Max(b.x0, math.Min(q.X, b.x1))
-					ly := math.Max(b.y0, math.Min(q.Y, b.y1))
-					fmt.Fprintf(&c.over, `<path d="M%s %sL%s %s" stroke="#9a9a9a" stroke-width="0.6"/>`+"\n",
-						num(q.X), num(q.Y), num(lx), num(ly))
-				}
-				weight := ""
-				if bold {
-					weight = ` font-weight="bold"`
-				}
-				fmt.Fprintf(&c.over, `<text x="%s" y="%s" font-size="%s" fill="%s"%s>%s</text>`+"\n",
-					num(q.X+d.dx), num(q.Y+d.dy), num(q.size), q.ink, weight, esc(q.label))
-				return
-			}
+		if at.Leader {
+			fmt.Fprintf(&c.over, `<path d="M%s %sL%s %s" stroke="#9a9a9a" stroke-width="0.6"/>`+"\n",
+				num(boxes[i].Anchor.X), num(boxes[i].Anchor.Y), num(at.LeaderEnd.X), num(at.LeaderEnd.Y))
 		}
-		// No free place: the point stays unlabelled here (the table below
-		// the figure lists every reference with its coordinates).
-	}
-	place(pt{tx, ty, "this trace", "#111111", 11.5}, true)
-	for _, q := range pts {
-		place(q, false)
+		weight := ""
+		if pts[i].bold {
+			weight = ` font-weight="bold"`
+		}
+		fmt.Fprintf(&c.over, `<text x="%s" y="%s" font-size="%s" fill="%s"%s>%s</text>`+"\n",
+			num(at.Origin.X), num(at.Origin.Y), num(pts[i].size), pts[i].ink, weight, esc(pts[i].label))
 	}
 	for _, r := range p.References {
 		if r.Error != "" {
@@ -465,6 +445,11 @@ func surrogateFigure(results []surrogate.Result) string {
 	n := float64(len(rows))
 	c := newChart("fig-surrogates", wideW, 56+34*n, scale{-zmax, zmax, false}, scale{0, n, false})
 	c.left, c.right, c.top = 104, 20, 8
+	var stats []string
+	for _, r := range rows {
+		stats = append(stats, r.Stat)
+	}
+	c.left = fitLeft(stats, c.left)
 	c.title = "Observed statistics against their surrogate distributions"
 	c.xlabel = "(value − surrogate mean) / surrogate sd"
 	c.vline(0, "#bbbbbb", 1, "")
@@ -498,6 +483,18 @@ func surrogateFigure(results []surrogate.Result) string {
 		}
 	}
 	return c.svg()
+}
+
+// fitLeft returns the left margin of a chart whose y tick labels are
+// labels: room for the widest (at the chart's 11-unit font, set 6 units
+// left of the axis) and 4 units to the figure's edge, and never less than
+// floor.
+func fitLeft(labels []string, floor float64) float64 {
+	var ws []float64
+	for _, l := range labels {
+		ws = append(ws, textWidth(l, 11))
+	}
+	return fig.LeftMargin(ws, 6, 0, 4, floor)
 }
 
 // scaled returns xs multiplied by f.

@@ -316,7 +316,7 @@ func TestReportScaleFree(t *testing.T) {
 func TestReportContent(t *testing.T) {
 	_, r := henonHTML(t)
 	// Hénon (a = 1.4, b = 0.3) is chaotic (λ1 = 0.419 > 0; Sprott 2003,
-	// memory); a model trained on the reference set must say so.
+	// confirmed: tkf/LyapunovExponents.jl src/examples/henon_map.jl); a model trained on the reference set must say so.
 	if r.Verdict.Class != "chaotic" {
 		t.Errorf("verdict %s (probabilities %v), want chaotic", r.Verdict.Class, r.Verdict.Probabilities)
 	}
@@ -453,7 +453,7 @@ func TestHurwitzZeta(t *testing.T) {
 		src        string
 	}{
 		{2, 1, math.Pi * math.Pi / 6, "Euler: ζ(2) = π²/6"},
-		{3, 1, 1.2020569031595942, "Apéry's constant ζ(3) (memory)"},
+		{3, 1, 1.2020569031595942, "Apéry's constant ζ(3) = 1.20205690315959428540, numerics.net Constants.Apery docs"},
 		{4, 1, math.Pow(math.Pi, 4) / 90, "Euler: ζ(4) = π⁴/90"},
 		{2, 5, math.Pi*math.Pi/6 - 1 - 0.25 - 1.0/9 - 1.0/16, "ζ(s, q+1) = ζ(s, q) − q^{−s}, derived"},
 		{2.5, 3, 0, "direct sum, see below"},
@@ -510,8 +510,29 @@ func TestTicksAndNumbers(t *testing.T) {
 			got = append(got, tk.label)
 		}
 	}
-	if len(got) != 5 || got[4] != "1" || !strings.Contains(got[0], "−4") {
+	// One notation per axis: the decade 1 is written as a power like the
+	// others (10⁰), not in fixed notation.
+	if len(got) != 5 || got[4] != `10<tspan dy="-5" font-size="8">0</tspan>` || !strings.Contains(got[0], "−4") {
 		t.Errorf("log ticks %v", got)
+	}
+	// A log axis within 10⁻³…10⁵ is written in fixed notation throughout.
+	got = nil
+	for _, tk := range ticks(scale{1, 150, true}) {
+		if !tk.minor {
+			got = append(got, tk.label)
+		}
+	}
+	if strings.Join(got, " ") != "1 10 100" {
+		t.Errorf("log ticks 1…150: %v", got)
+	}
+	// A linear axis reaching 10⁵ is scientific throughout (per-tick rules
+	// wrote 80000 beside 1e+05).
+	got = nil
+	for _, tk := range ticks(scale{0, 1e5, false}) {
+		got = append(got, tk.label)
+	}
+	if got[4] != `8.0×10<tspan dy="-5" font-size="8">4</tspan>` || got[5] != `1.0×10<tspan dy="-5" font-size="8">5</tspan>` {
+		t.Errorf("linear ticks 0…1e5: %v", got)
 	}
 	if f, l := valueAxis(Summary{Column: "Id", Unit: "A"}, 8.9e-6); math.Abs(f-1e6) > 1e-6 || l != "Id (µA)" {
 		t.Errorf("value axis %g %q", f, l)
@@ -530,14 +551,14 @@ func TestRenderDemo(t *testing.T) {
 	}
 	in := os.Getenv("REPORT_IN")
 	if in == "" {
-		in = filepath.Join("..", "..", "testdata", "demo", "stressed", "D01_stressed_Vg1.20.csv")
+		in = filepath.Join("..", "testdata", "demo", "stressed", "D01_stressed_Vg1.20.csv")
 	}
 	tr, err := trace.ReadFile(in, trace.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	// Name the file relative to the repository root when it lies inside.
-	if root, err := filepath.Abs(filepath.Join("..", "..")); err == nil {
+	if root, err := filepath.Abs(".."); err == nil {
 		if abs, err := filepath.Abs(in); err == nil {
 			if rel, err := filepath.Rel(root, abs); err == nil && !strings.HasPrefix(rel, "..") {
 				tr.Source = filepath.ToSlash(rel)
@@ -549,4 +570,39 @@ func TestRenderDemo(t *testing.T) {
 		t.Fatal(err)
 	}
 	t.Logf("wrote %s (%d bytes)", out, len(html))
+}
+
+// TestLegendMovesOffData: a legend asked for at the top right moves when
+// bars reach into that corner, and stays when the corner is free.
+func TestLegendMovesOffData(t *testing.T) {
+	draw := func(top float64) *chart {
+		c := newChart("fig-t", 420, 300, scale{0, 10, false}, scale{0, 1, false})
+		c.bars([]float64{0, 8}, []float64{2, 10}, []float64{0.3, top}, 0, "#cccccc", "#333333")
+		c.legend = []legendEntry{{label: "bars", fill: "#cccccc", stroke: "#333333"}}
+		c.svg()
+		return c
+	}
+	legendX := func(c *chart) string {
+		s := c.legendSVG()
+		i := strings.Index(s, `<rect x="`)
+		return s[i+9 : i+9+strings.Index(s[i+9:], `"`)]
+	}
+	free, covered := draw(0.2), draw(0.95)
+	if got := legendX(free); got != num(free.left+free.plotW()-(textWidth("bars", 10.5)+34)-6) {
+		t.Errorf("legend over free corner at x = %s, want the top right", got)
+	}
+	if got := legendX(covered); got != num(covered.left+6) {
+		t.Errorf("legend beside a tall bar at x = %s, want the top left", got)
+	}
+}
+
+// TestFitLeft: the left margin of the bar figures holds the widest label.
+func TestFitLeft(t *testing.T) {
+	long := "a_rather_long_statistic_name_tau"
+	if m := fitLeft([]string{"x", long}, 104); m < textWidth(long, 11)+6 {
+		t.Errorf("margin %g narrower than the label %g", m, textWidth(long, 11))
+	}
+	if m := fitLeft([]string{"chaotic"}, 86); m != 86 {
+		t.Errorf("margin %g, want the floor 86", m)
+	}
 }

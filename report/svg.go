@@ -5,6 +5,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
+
+	fig "github.com/tracesift/tracesift/report/figure"
 )
 
 // The figures are drawn by this small SVG writer rather than a plotting
@@ -48,6 +50,9 @@ type chart struct {
 	legend         []legendEntry
 	legendLeft     bool // place the legend at the top left instead of top right
 	legendBottom   bool // place the legend at the bottom (right unless legendLeft)
+	// avoid records what the content draws (lines, markers, bars) in user
+	// units, so the legend can be moved off data it would cover.
+	avoid fig.Obstacles
 }
 
 type tick struct {
@@ -82,6 +87,7 @@ func (c *chart) py(v float64) float64 { return c.top + (1-c.y.frac(v))*c.plotH()
 // axis). Points far outside the plot are clamped so the path stays short.
 func (c *chart) polyline(xs, ys []float64, stroke string, width float64, dash string) {
 	var b strings.Builder
+	var piece []fig.Point
 	flush := func() {
 		if b.Len() == 0 {
 			return
@@ -89,6 +95,8 @@ func (c *chart) polyline(xs, ys []float64, stroke string, width float64, dash st
 		fmt.Fprintf(&c.body, `<path d="%s" fill="none" stroke="%s" stroke-width="%s"%s stroke-linejoin="round"/>`+"\n",
 			b.String(), stroke, num(width), dashAttr(dash))
 		b.Reset()
+		c.avoid.Lines = append(c.avoid.Lines, piece)
+		piece = nil
 	}
 	for i := range xs {
 		X, Y := c.px(xs[i]), c.py(ys[i])
@@ -97,6 +105,7 @@ func (c *chart) polyline(xs, ys []float64, stroke string, width float64, dash st
 			continue
 		}
 		X, Y = c.clampX(X), c.clampY(Y)
+		piece = append(piece, fig.Point{X: X, Y: Y})
 		if b.Len() == 0 {
 			b.WriteString("M" + num(X) + " " + num(Y))
 		} else {
@@ -114,11 +123,14 @@ func (c *chart) clampY(v float64) float64 { return math.Max(-c.h, math.Min(2*c.h
 // area fills the band between lower and upper over xs (min/max envelopes).
 func (c *chart) area(xs, lower, upper []float64, fill, stroke string) {
 	var b strings.Builder
+	var outline []fig.Point
+	defer func() { c.avoid.Lines = append(c.avoid.Lines, outline) }()
 	for i := range xs {
 		X, Y := c.px(xs[i]), c.py(upper[i])
 		if !finite(X) || !finite(Y) {
 			continue
 		}
+		outline = append(outline, fig.Point{X: c.clampX(X), Y: c.clampY(Y)})
 		if b.Len() == 0 {
 			b.WriteString("M")
 		} else {
@@ -131,6 +143,7 @@ func (c *chart) area(xs, lower, upper []float64, fill, stroke string) {
 		if !finite(X) || !finite(Y) {
 			continue
 		}
+		outline = append(outline, fig.Point{X: c.clampX(X), Y: c.clampY(Y)})
 		b.WriteString("L" + num(c.clampX(X)) + " " + num(c.clampY(Y)))
 	}
 	if b.Len() == 0 {
@@ -147,6 +160,8 @@ func (c *chart) markers(xs, ys []float64, shape string, r float64, fill, stroke 
 			continue
 		}
 		c.body.WriteString(marker(shape, X, Y, r, fill, stroke))
+		c.avoid.Points = append(c.avoid.Points, fig.Point{X: X, Y: Y})
+		c.avoid.Radius = math.Max(c.avoid.Radius, r)
 	}
 }
 
@@ -201,6 +216,7 @@ func (c *chart) bars(lo, hi, v []float64, base float64, fill, stroke string) {
 		}
 		fmt.Fprintf(&c.body, `<rect x="%s" y="%s" width="%s" height="%s" fill="%s" stroke="%s" stroke-width="0.5"/>`+"\n",
 			num(x0), num(top), num(math.Max(x1-x0, 0.1)), num(height), fill, stroke)
+		c.avoid.Boxes = append(c.avoid.Boxes, fig.Rect{X0: x0, Y0: top, X1: x0 + math.Max(x1-x0, 0.1), Y1: top + height})
 	}
 }
 
@@ -336,7 +352,9 @@ func (c *chart) svg() string {
 	return b.String()
 }
 
-// legendSVG draws the legend box in a corner of the plot area.
+// legendSVG draws the legend box in the corner of the plot area the chart
+// asks for, or, when it would cover drawn data there, where
+// fig.PlaceLegend finds a free place.
 func (c *chart) legendSVG() string {
 	if len(c.legend) == 0 {
 		return ""
@@ -354,6 +372,12 @@ func (c *chart) legendSVG() string {
 	y0 := c.top + 6
 	if c.legendBottom {
 		y0 = c.top + c.plotH() - height - 6
+	}
+	if c.avoid.Clearance(fig.Rect{X0: x0, Y0: y0, X1: x0 + width, Y1: y0 + height}, 1) <= 0 {
+		plot := fig.Rect{X0: c.left, Y0: c.top, X1: c.left + c.plotW(), Y1: c.top + c.plotH()}
+		if r, ok := fig.PlaceLegend(plot, width, height, 6, c.avoid); ok {
+			x0, y0 = r.X0, r.Y0
+		}
 	}
 	var b strings.Builder
 	fmt.Fprintf(&b, `<g font-size="10.5"><rect x="%s" y="%s" width="%s" height="%s" fill="#ffffff" fill-opacity="0.9" stroke="#bbbbbb" stroke-width="0.6"/>`+"\n",
@@ -375,96 +399,44 @@ func (c *chart) legendSVG() string {
 	return b.String()
 }
 
-// ticks returns the major ticks of a scale: "nice" steps of 1, 2 or 5 ×
-// 10^k on a linear axis, decades (with 2 and 5 between them when the axis
-// spans less than two decades) on a log axis.
+// ticks returns the major ticks of a scale (fig.Linear with about five
+// steps, or fig.Log), labelled in one notation per axis.
 func ticks(s scale) []tick {
 	if !(s.hi > s.lo) {
 		return nil
 	}
+	var ft []fig.Tick
 	if s.log {
-		return logTicks(s.lo, s.hi)
+		ft = fig.Log(s.lo, s.hi)
+	} else {
+		ft = fig.Linear(s.lo, s.hi, 5)
 	}
-	step := niceStep((s.hi - s.lo) / 5)
-	var out []tick
-	start := math.Ceil(s.lo/step - 1e-9)
-	for k := start; k*step <= s.hi*(1+1e-12)+step*1e-9; k++ {
-		v := k * step
-		if math.Abs(v) < step*1e-9 {
-			v = 0
+	out := make([]tick, len(ft))
+	for i, t := range ft {
+		out[i] = tick{v: t.Value, minor: t.Minor}
+		if !t.Minor {
+			out[i].label = labelSVG(t.Label)
 		}
-		out = append(out, tick{v: v, label: linearLabel(v, step)})
 	}
 	return out
 }
 
-// niceStep rounds raw up to 1, 2 or 5 × 10^k.
-func niceStep(raw float64) float64 {
-	if !(raw > 0) || math.IsInf(raw, 0) {
-		return 1
+// labelSVG writes a tick label as SVG text content, the exponent of a
+// scientific label raised in a smaller size.
+func labelSVG(l fig.Label) string {
+	if !l.Sci || l.Mant == "0" {
+		return esc(l.Mant)
 	}
-	p := math.Pow(10, math.Floor(math.Log10(raw)))
-	switch m := raw / p; {
-	case m <= 1:
+	p := `10<tspan dy="-5" font-size="8">` + minus(strconv.Itoa(l.Exp)) + `</tspan>`
+	if l.Mant == "" {
 		return p
-	case m <= 2:
-		return 2 * p
-	case m <= 5:
-		return 5 * p
 	}
-	return 10 * p
-}
-
-// linearLabel prints a tick value with as many decimals as the step needs.
-func linearLabel(v, step float64) string {
-	if a := math.Max(math.Abs(v), step); a >= 1e5 || a < 1e-3 && v != 0 {
-		return esc(strconv.FormatFloat(v, 'g', 3, 64))
-	}
-	dec := 0
-	if step < 1 {
-		dec = int(math.Ceil(-math.Log10(step) - 1e-9))
-	}
-	return minus(strconv.FormatFloat(v, 'f', dec, 64))
-}
-
-func logTicks(lo, hi float64) []tick {
-	a, b := math.Floor(math.Log10(lo)+1e-9), math.Ceil(math.Log10(hi)-1e-9)
-	few := b-a < 2.5
-	var out []tick
-	for e := a; e <= b; e++ {
-		p := math.Pow(10, e)
-		for _, m := range []float64{1, 2, 3, 4, 5, 6, 7, 8, 9} {
-			v := m * p
-			if v < lo*(1-1e-9) || v > hi*(1+1e-9) {
-				continue
-			}
-			switch {
-			case m == 1:
-				out = append(out, tick{v: v, label: powerLabel(int(e))})
-			case few && (m == 2 || m == 5):
-				out = append(out, tick{v: v, label: esc(strconv.FormatFloat(v, 'g', 3, 64))})
-			default:
-				out = append(out, tick{v: v, minor: true})
-			}
-		}
-	}
-	return out
-}
-
-// powerLabel writes 10^e with a raised exponent (1 and 10 written out).
-func powerLabel(e int) string {
-	switch e {
-	case 0:
-		return "1"
-	case 1:
-		return "10"
-	}
-	return `10<tspan dy="-5" font-size="8">` + minus(strconv.Itoa(e)) + `</tspan>`
+	return esc(l.Mant) + "×" + p
 }
 
 // intTicks returns ticks at the integers of [lo, hi] with the given step.
 func intTicks(lo, hi float64) []tick {
-	step := math.Max(1, niceStep((hi-lo)/6))
+	step := math.Max(1, fig.NiceStep((hi-lo)/6))
 	var out []tick
 	for v := math.Ceil(lo/step) * step; v <= hi+1e-9; v += step {
 		out = append(out, tick{v: v, label: strconv.Itoa(int(v))})

@@ -280,14 +280,14 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <li>Cao L. Practical method for determining the minimum embedding dimension of a scalar time series. Physica D 110 (1997) 43.</li>
 <li>Clauset A, Shalizi CR, Newman MEJ. Power-law distributions in empirical data. SIAM Review 51 (2009) 661.</li>
 <li>Fraser AM, Swinney HL. Independent coordinates for strange attractors from mutual information. Phys. Rev. A 33 (1986) 1134.</li>
-<li>Geweke J, Porter-Hudak S. The estimation and application of long memory time series models. J. Time Ser. Anal. 4 (1983) 221 (memory).</li>
+<li>Geweke J, Porter-Hudak S. The estimation and application of long memory time series models. J. Time Ser. Anal. 4 (1983) 221 (checked: search.r-project.org/CRAN/refmans/LongMemoryTS/html/gph.html).</li>
 <li>Holm S. A simple sequentially rejective multiple test procedure. Scand. J. Statist. 6 (1979) 65.</li>
 <li>Lacasa L, Luque B, Ballesteros F, Luque J, Nuño JC. From time series to complex networks: the visibility graph. PNAS 105 (2008) 4972.</li>
-<li>Lacasa L, Luque B, Luque J, Nuño JC. The visibility graph: a new method for estimating the Hurst exponent of fractional Brownian motion. EPL 86 (2009) 30001 (memory).</li>
+<li>Lacasa L, Luque B, Luque J, Nuño JC. The visibility graph: a new method for estimating the Hurst exponent of fractional Brownian motion. EPL 86 (2009) 30001 (checked: arxiver.lazybrains.com/author/124807, arXiv:0901.0888).</li>
 <li>Lacasa L, Toral R. Description of stochastic and chaotic series using visibility graphs. Phys. Rev. E 82 (2010) 036120.</li>
-<li>Lilliefors HW. On the Kolmogorov–Smirnov test for normality with mean and variance unknown. J. Am. Stat. Assoc. 62 (1967) 399 (memory).</li>
+<li>Lilliefors HW. On the Kolmogorov–Smirnov test for normality with mean and variance unknown. J. Am. Stat. Assoc. 62 (1967) 399 (checked: rdrr.io/cran/PoweR/man/stat0001.Lilliefors.html).</li>
 <li>Luque B, Lacasa L, Ballesteros F, Luque J. Horizontal visibility graphs: exact results for random time series. Phys. Rev. E 80 (2009) 046103.</li>
-<li>Martin MT, Plastino A, Rosso OA. Generalized statistical complexity measures: geometrical and analytical properties. Physica A 369 (2006) 439 (memory).</li>
+<li>Martin MT, Plastino A, Rosso OA. Generalized statistical complexity measures: geometrical and analytical properties. Physica A 369 (2006) 439 (checked: search.r-project.org/CRAN/refmans/statcomp/html/maxd6.html).</li>
 <li>Núñez AM, Lacasa L, Gómez JP, Luque B. Visibility algorithms: a short review (2012) (memory).</li>
 <li>Rényi A. On the theory of order statistics. Acta Math. Acad. Sci. Hung. 4 (1953) 191 (memory).</li>
 <li>Rosso OA, Larrondo HA, Martin MT, Plastino A, Fuentes MA. Distinguishing noise from chaos. Phys. Rev. Lett. 99 (2007) 154102.</li>

@@ -2,6 +2,7 @@ package trace_test
 
 import (
 	"fmt"
+	"path/filepath"
 	"strings"
 
 	"github.com/tracesift/tracesift/trace"
@@ -36,4 +37,19 @@ Time (s),Id (A)
 	// 6 samples of Id [A] every 0.001 s, from line 4
 	// [1.02e-06 1.07e-06 9.8e-07]
 	// bad.csv line 4, column 2 ("Id"): not a number: "x"
+}
+
+// ExampleReadFile reads a gzip-compressed capture of the demo campaign:
+// compression is recognised by its magic bytes, the comment lines are
+// skipped and the time column gives the sample interval.
+func ExampleReadFile() {
+	tr, err := trace.ReadFile(filepath.Join("..", "testdata", "demo", "stressed", "D02_stressed_Vg1.20.csv.gz"), trace.Options{})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("%d samples of %s [%s] every %.4g %s, time in column %d, first data row on line %d, %d warnings\n",
+		len(tr.Values), tr.Column, tr.Unit, tr.Interval, tr.TimeUnit, tr.TimeColumn, tr.FirstLine, len(tr.Warnings))
+	// Output:
+	// 4096 samples of Id [A] every 0.0001 s, time in column 1, first data row on line 4, 0 warnings
 }

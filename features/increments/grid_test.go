@@ -10,10 +10,10 @@ import (
 // autocorrelation of its increments is −1/2 (derived: for i.i.d. X of any
 // distribution, Cov(X₁ − X₀, X₂ − X₁) = −Var X and Var(X₁ − X₀) = 2 Var X),
 // within 3/√N (over four standard errors: Bartlett's formula gives
-// √((1 − 3ρ² + 4ρ⁴)/N) = 0.71/√N at ρ = −1/2 (memory)); but its
+// √((1 − 3ρ² + 4ρ⁴)/N) = 0.71/√N at ρ = −1/2, derived from the formula as quoted by Cavazos-Cadena, Stat. Probab. Lett. 19 (1994) 221); but its
 // increments live on the grid, and the KS distance to
 // the fitted Gaussian exceeds the Lilliefors 1% critical value 1.031/√N
-// (Lilliefors, J. Am. Stat. Assoc. 62 (1967) 399 (memory)). Spread over
+// (Lilliefors, J. Am. Stat. Assoc. 62 (1967) 399; 1.031/√N as in NikNakk/mothur source/calculators/geom.cpp). Spread over
 // their cells (uniform dither, as features.Extract does) the increments pass
 // the same test.
 func TestQuantisedIID(t *testing.T) {

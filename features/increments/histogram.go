@@ -11,7 +11,7 @@ import (
 type HistogramOptions struct {
 	// Bins is the number of equal-width bins. 0 means the
 	// Freedman–Diaconis rule, width 2·IQR·N^{−1/3} (Freedman & Diaconis,
-	// Z. Wahrscheinlichkeitstheorie 57 (1981) 453 (memory)), clamped to
+	// Z. Wahrscheinlichkeitstheorie 57 (1981) 453; checked: pythonhosted.org/SpacePy/autosummary/spacepy.toolbox.binHisto.html), clamped to
 	// 10…200 bins.
 	Bins int
 	// Min and Max bound the histogram range. Both 0 means the data range.

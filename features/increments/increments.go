@@ -81,7 +81,7 @@ type Result struct {
 	KS float64
 	// KSCritical is the Lilliefors 5% critical value for a Gaussian with
 	// estimated mean and variance, ≈ 0.886/√N for large N (Lilliefors,
-	// J. Am. Stat. Assoc. 62 (1967) 399 (memory)).
+	// J. Am. Stat. Assoc. 62 (1967) 399; 0.886/√N as in NikNakk/mothur source/calculators/geom.cpp).
 	KSCritical float64
 	// MaxAbsZ is the largest |z|, in standard deviations: a single jump
 	// shows here before it moves the moments.

@@ -42,7 +42,7 @@ func studentWalk(t testing.TB, n int, rng *rand.Rand) []float64 {
 // excess kurtosis ≈ 0 within 3 standard errors √(6/N), √(24/N) (standard
 // results for i.i.d. Gaussian samples), the KS distance to the fitted
 // Gaussian below the Lilliefors 1% critical value 1.031/√N (Lilliefors,
-// J. Am. Stat. Assoc. 62 (1967) 399 (memory)), and the lag-1 increment
+// J. Am. Stat. Assoc. 62 (1967) 399; 1.031/√N as in NikNakk/mothur source/calculators/geom.cpp), and the lag-1 increment
 // autocorrelation ≈ 0 within 3/√N (standard error of a sample
 // autocorrelation of i.i.d. data).
 func TestGaussianRandomWalk(t *testing.T) {

@@ -78,14 +78,20 @@ func AverageMutualInformation(x []float64, opts AMIOptions) (*AMIResult, error) 
 	maxPairs := orDefault(opts.MaxPairs, 50000)
 	b := binEquiprobable(z, bins)
 	res := &AMIResult{MI: make([]float64, maxLag+1), Bins: bins}
+	// Integer counts: the same values as float64 counting (far below
+	// 2^53), without a floating-point add per pair.
+	counts := make([]int32, bins*bins)
 	joint := make([]float64, bins*bins)
 	pa := make([]float64, bins)
 	pb := make([]float64, bins)
 	for lag := 0; lag <= maxLag; lag++ {
 		np := min(n-lag, maxPairs)
-		clear(joint)
-		for t := 0; t < np; t++ {
-			joint[int(b[t])*bins+int(b[t+lag])]++
+		clear(counts)
+		for t, u := range b[lag : lag+np] {
+			counts[int(b[t])*bins+int(u)]++
+		}
+		for k, c := range counts {
+			joint[k] = float64(c)
 		}
 		clear(pa)
 		clear(pb)

@@ -112,22 +112,21 @@ func BenchmarkAsymmetry(b *testing.B) {
 	})
 }
 
-// BenchmarkAll is the feature-extractor path: one Embed, then every measure
-// with that embedding, on a 10^5-sample trace.
+// BenchmarkAll is the feature-extractor path: one Reconstruct, then every
+// measure on that reconstruction, on a 10^5-sample trace.
 func BenchmarkAll(b *testing.B) {
 	for _, s := range benchSystems {
 		x := series(b, s.g, 100000, 1)
 		b.Run(s.name+"/n=1e5", func(b *testing.B) {
 			benchLoop(b, func() {
-				e, err := Embed(x, EmbedOptions{})
+				r, err := Reconstruct(x, EmbedOptions{})
 				if err != nil {
 					b.Fatal(err)
 				}
-				eo := e.Fixed()
-				Lyapunov(x, LyapunovOptions{Embed: eo})
-				CorrelationDimension(x, CorrDimOptions{Embed: eo})
+				r.Lyapunov(LyapunovOptions{})
+				r.CorrelationDimension(CorrDimOptions{})
 				ZeroOne(x, ZeroOneOptions{})
-				Prediction(x, PredictionOptions{Embed: eo})
+				r.Prediction(PredictionOptions{})
 				Asymmetry(x, AsymmetryOptions{})
 				SampleEntropy(x, SampEnOptions{})
 			})

@@ -68,18 +68,20 @@ func Cao(x []float64, opts CaoOptions) (*CaoResult, error) {
 	if err != nil {
 		return nil, err
 	}
-	return caoStd(z, delay, w, opts)
+	return caoStd(z, delay, w, opts, nil)
 }
 
 // caoStd runs Cao's method on a standardised series with a known delay and
-// Theiler window.
-func caoStd(z []float64, delay, w int, opts CaoOptions) (*CaoResult, error) {
+// Theiler window; its neighbour searches share the sorted projection of rec
+// (which may be nil).
+func caoStd(z []float64, delay, w int, opts CaoOptions, rec *Reconstruction) (*CaoResult, error) {
 	// E(d) is needed for d = 1..MaxDim+1, each reading a (d+1)-th
 	// coordinate: vectors of dimension MaxDim+2 must exist.
 	s, err := newDimSearch(z, delay, w, opts.MaxDim, opts.MaxRef, opts.MaxPoints, 2, caoWho)
 	if err != nil {
 		return nil, err
 	}
+	s.rec = rec
 	maxDim := s.maxDim
 	thr := orDefault(opts.Threshold, 0.85)
 	E := make([]float64, maxDim+2)     // E[d] for d = 1..maxDim+1

@@ -40,6 +40,12 @@ type dimSearch struct {
 	maxDim int // resolved MaxDim
 	refs   []int
 	q      []float64 // query scratch
+	// rec, when not nil, shares its sorted projection of the series;
+	// proj is the projection in use (built on the first maximum-norm
+	// search).
+	rec    *Reconstruction
+	proj   *projection
+	shared *kdTree // search tree of every dimension (Reconstruction.searchTree)
 }
 
 // newDimSearch resolves MaxDim, MaxRef and MaxPoints (≤ 0: the defaults),
@@ -74,15 +80,49 @@ func newDimSearch(z []float64, delay, w, maxDim, maxRef, maxPoints, extra int, w
 // when euclid is set), with their distance dist and the gap
 // extra = |z_{i+dτ} − z_{j+dτ}| of the (d+1)-th coordinate. The vectors
 // searched are those that have a (d+1)-th coordinate.
+//
+// Under the maximum norm the neighbours are found by sorted projection
+// (one sort of the samples serves every dimension) or in one search tree
+// shared by every dimension (Reconstruction.searchTree), as searchPlan
+// decides; a reference whose nearest distance is shared by several vectors
+// is settled by the k-d tree of dimension d, built only then, so the
+// answers are those of that tree alone (see projection).
 func (s *dimSearch) neighbours(d int, euclid bool, visit func(dist, extra float64)) {
 	z, delay := s.z, s.delay
 	m := len(z) - d*delay
-	pts := delayVectors(z, d, delay, m)
-	tree := newKDTree(pts, d, m)
+	var tree *kdTree // the k-d tree of dimension d, on the first tie
+	if euclid {
+		tree = newDelayTree(z, d, delay, m, kdLeafSize)
+	} else if s.proj == nil {
+		s.proj = s.rec.projectionOf(z, s.maxDim+2, delay)
+	}
 	q := s.q[:d]
+	plan := searchPlan{n: m, noProj: euclid, noFast: euclid}
 	for _, i := range s.refs {
-		copy(q, pts[i*d:(i+1)*d])
-		j, dist := tree.nearest(q, i, s.w, euclid)
+		var j int
+		var dist float64
+		tie := true
+		for c := range q {
+			q[c] = z[i+c*delay]
+		}
+		switch proj, fast := plan.next(); {
+		case proj:
+			var c int
+			j, dist, tie, c = s.proj.nearestMax(i, d, m, s.w)
+			plan.record(c, tie)
+		case fast:
+			if s.shared == nil {
+				s.shared = s.rec.searchTree(z, s.maxDim+1, delay)
+			}
+			j, dist, tie = s.shared.nearestTie(q, i, s.w, m, false)
+			plan.record(0, tie)
+		}
+		if tie {
+			if tree == nil {
+				tree = newDelayTree(z, d, delay, m, kdLeafSize)
+			}
+			j, dist = tree.nearest(q, i, s.w, euclid)
+		}
 		if j < 0 {
 			continue
 		}

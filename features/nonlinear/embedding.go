@@ -1,9 +1,5 @@
 package nonlinear
 
-import (
-	"fmt"
-)
-
 // Method names reported in Embedding.
 const (
 	MethodGiven   = "given"            // supplied by the caller
@@ -75,25 +71,15 @@ func (e *Embedding) Fixed() EmbedOptions {
 //     neighbours (Kennel, Brown & Abarbanel 1992) when UseFNN is set.
 //
 // x needs at least 200 samples for the automatic choice.
+//
+// Reconstruct does the same and keeps the standardised series with its
+// neighbour-search structures for the estimators.
 func Embed(x []float64, opts EmbedOptions) (*Embedding, error) {
-	_, e, err := standardEmbed(x, opts, "nonlinear: embed")
-	return e, err
-}
-
-// standardEmbed is the input stage shared by Embed and the estimators that
-// embed (CorrelationDimension, Lyapunov, Prediction): it standardises x (at
-// least 200 samples) and embeds the standardised series as Embed does. who
-// names the caller in error messages.
-func standardEmbed(x []float64, opts EmbedOptions, who string) ([]float64, *Embedding, error) {
-	z, err := standardize(x, 200, who)
+	r, err := Reconstruct(x, opts)
 	if err != nil {
-		return nil, nil, err
+		return nil, err
 	}
-	e, err := embedStd(z, opts)
-	if err != nil {
-		return nil, nil, fmt.Errorf("%s: %w", who, err)
-	}
-	return z, e, nil
+	return r.emb, nil
 }
 
 // defaultMaxLag is the default largest lag of the mutual-information curve
@@ -123,8 +109,9 @@ func chooseDelay(z []float64, opts EmbedOptions) (delay, acf int, ami *AMIResult
 	return delay, acf, ami, nil
 }
 
-// embedStd is Embed on a standardised series.
-func embedStd(z []float64, opts EmbedOptions) (*Embedding, error) {
+// embedStd is Embed on a standardised series; the dimension search shares
+// the sorted projection of rec (which may be nil).
+func embedStd(z []float64, opts EmbedOptions, rec *Reconstruction) (*Embedding, error) {
 	e := &Embedding{DimMethod: MethodGiven, DelayMethod: MethodGiven, TheilerMethod: MethodGiven}
 	delay, acf, ami, err := chooseDelay(z, opts)
 	if err != nil {
@@ -160,7 +147,7 @@ func embedStd(z []float64, opts EmbedOptions) (*Embedding, error) {
 		e.FNN, e.Dim, e.DimMethod = f, f.Dim, MethodFNN
 		return e, nil
 	}
-	c, err := caoStd(z, delay, e.Theiler, CaoOptions{MaxDim: maxDim, MaxRef: opts.MaxRef, MaxPoints: opts.MaxPoints})
+	c, err := caoStd(z, delay, e.Theiler, CaoOptions{MaxDim: maxDim, MaxRef: opts.MaxRef, MaxPoints: opts.MaxPoints}, rec)
 	if err != nil {
 		return nil, err
 	}

@@ -82,11 +82,21 @@ const (
 // Embed.Dim to evaluate another dimension. The series needs at least 200
 // samples.
 func CorrelationDimension(x []float64, opts CorrDimOptions) (*CorrDimResult, error) {
-	const who = "nonlinear: correlation dimension"
-	z, emb, err := standardEmbed(x, opts.Embed, who)
+	r, err := reconstruct(x, opts.Embed, corrDimWho)
 	if err != nil {
 		return nil, err
 	}
+	return r.CorrelationDimension(opts)
+}
+
+// corrDimWho names CorrelationDimension in error messages.
+const corrDimWho = "nonlinear: correlation dimension"
+
+// CorrelationDimension is the package function CorrelationDimension on the
+// reconstructed series, in its embedding (opts.Embed is not read).
+func (r *Reconstruction) CorrelationDimension(opts CorrDimOptions) (*CorrDimResult, error) {
+	const who = corrDimWho
+	z, emb := r.z, r.emb
 	d, tau, w := emb.Dim, emb.Delay, emb.Theiler
 	M := len(z) - (d-1)*tau
 	if M < 2*w+50 {
@@ -96,27 +106,28 @@ func CorrelationDimension(x []float64, opts CorrDimOptions) (*CorrDimResult, err
 	minPairs := orDefault(opts.MinPairs, 500)
 	maxC := orDefault(opts.MaxC, 0.2)
 	decades := orDefault(opts.Decades, 1)
-	pts := delayVectors(z, d, tau, 0)
 	res := &CorrDimResult{D2: math.NaN(), R2: math.NaN(), SlopeSpread: math.NaN(), Embedding: *emb}
 	hist := make([]int64, corrBins)
 	var total int64
 	if int64(M)*int64(M-1)/2 <= int64(maxPairs) {
 		// every pair i < j with j − i > w
 		res.Refs, res.Stride = M, 1
+		cs := newCorrSum(z, d, tau, M, 1, hist)
 		for i := 0; i < M; i++ {
-			total += corrCount(pts, d, i, i+w+1, M, 1, hist)
+			total += cs.add(i, i+w+1, M)
 		}
 	} else {
 		nref := min(M, max(int(math.Sqrt(float64(maxPairs))), maxPairs/M))
 		stride := int((int64(nref)*int64(M) + int64(maxPairs) - 1) / int64(maxPairs))
 		stride = max(1, stride)
 		res.Refs, res.Stride = nref, stride
+		cs := newCorrSum(z, d, tau, M, stride, hist)
 		for _, i := range evenlySpaced(M, nref) {
-			// partners j ≡ 0 (mod stride) outside [i−w, i+w]
-			total += corrCount(pts, d, i, 0, max(0, i-w), stride, hist)
+			// partners j = k·stride outside [i−w, i+w]
+			total += cs.add(i, 0, ceilDiv(max(0, i-w), stride))
 			first := i + w + 1
 			first += (stride - first%stride) % stride
-			total += corrCount(pts, d, i, first, M, stride, hist)
+			total += cs.add(i, first/stride, ceilDiv(M, stride))
 		}
 	}
 	res.Pairs = total
@@ -195,31 +206,65 @@ func CorrelationDimension(x []float64, opts CorrDimOptions) (*CorrDimResult, err
 	return res, nil
 }
 
-// corrCount adds to hist the binned maximum-norm distances between vector i
-// and vectors j = from, from+stride, … < to, and returns how many it added.
-func corrCount(pts []float64, d, i, from, to, stride int, hist []int64) int64 {
-	if from >= to {
+// corrSum bins maximum-norm distances between delay vectors (dimension d,
+// delay tau) of z for the correlation sum: from a reference vector i to the
+// partner vectors j = k·stride, k = 0, 1, … (j < M). It works coordinate
+// by coordinate over the partners' coordinates laid out in columns, which
+// reads memory in sequence; the distance max_c |y_{j,c} − y_{i,c}| is exact
+// in any order, so the histogram is that of a pair-by-pair loop.
+type corrSum struct {
+	z    []float64
+	tau  int
+	cols [][]float64 // cols[c][k] = z[k·stride + c·tau]
+	dist []float64   // scratch
+	hist []int64
+}
+
+func newCorrSum(z []float64, d, tau, M, stride int, hist []int64) *corrSum {
+	np := ceilDiv(M, stride)
+	cs := &corrSum{z: z, tau: tau, cols: make([][]float64, d), dist: make([]float64, np), hist: hist}
+	for c := range cs.cols {
+		if stride == 1 {
+			cs.cols[c] = z[c*tau : c*tau+M]
+			continue
+		}
+		col := make([]float64, np)
+		for k := range col {
+			col[k] = z[k*stride+c*tau]
+		}
+		cs.cols[c] = col
+	}
+	return cs
+}
+
+// add adds to the histogram the binned distances from vector i to the
+// partners k0 ≤ k < k1 and returns how many it added.
+func (cs *corrSum) add(i, k0, k1 int) int64 {
+	if k0 >= k1 {
 		return 0
 	}
-	q := pts[i*d : (i+1)*d]
-	var n int64
-	for j := from; j < to; j += stride {
-		p := pts[j*d : (j+1)*d]
-		var dist float64
-		for c, v := range q {
-			g := math.Abs(p[c] - v)
-			if g > dist {
-				dist = g
-			}
+	dist := cs.dist[:k1-k0]
+	q0 := cs.z[i]
+	for k, v := range cs.cols[0][k0:k1] {
+		dist[k] = math.Abs(v - q0)
+	}
+	for c := 1; c < len(cs.cols); c++ {
+		qc := cs.z[i+c*cs.tau]
+		col := cs.cols[c][k0:k1]
+		for k, v := range col[:len(dist)] {
+			// Both are ≥ +0 and not NaN: max is exact and branch-free.
+			dist[k] = max(dist[k], math.Abs(v-qc))
 		}
-		b := int(math.Float64bits(dist)>>corrShift) - corrBase
+	}
+	hist := cs.hist[:corrBins]
+	for _, v := range dist {
+		b := int(math.Float64bits(v)>>corrShift) - corrBase
 		if b < 0 {
 			b = 0
 		} else if b >= corrBins {
 			b = corrBins - 1
 		}
 		hist[b]++
-		n++
 	}
-	return n
+	return int64(len(dist))
 }

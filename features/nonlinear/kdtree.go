@@ -24,6 +24,11 @@ type kdTree struct {
 	// sorted[c·n + k] holds coordinate c of the points of each leaf, sorted
 	// within the leaf's range; built on demand by pairsWithin.
 	sorted []float64
+	// splitDim[n] and splitVal[n] are the split coordinate and value of
+	// internal node n (left: ≤ splitVal, right: ≥ splitVal); recorded by
+	// newDelayTree for the order-free searches (nearestTie, kNearestTie).
+	splitDim []int8
+	splitVal []float64
 }
 
 type kdNode struct {
@@ -66,6 +71,159 @@ func newKDTreeLeaf(pts []float64, dim, count, leaf int) *kdTree {
 	}
 	t.build(0, count, outer)
 	return t
+}
+
+// newDelayTree builds the tree that newKDTreeLeaf would build over the
+// first count delay vectors of z, y_k = (z_k, z_{k+delay}, …,
+// z_{k+(dim−1)·delay}) — the same nodes, boxes and point order, so every
+// query answers identically, ties included — without materialising the
+// vectors first: the median selections run on point indices with one
+// coordinate column gathered from z, instead of swapping whole rows.
+// z must hold count + (dim−1)·delay samples; count ≥ 1.
+func newDelayTree(z []float64, dim, delay, count, leaf int) *kdTree {
+	t := &kdTree{dim: dim, leaf: max(1, leaf)}
+	t.ids = make([]int32, count)
+	for i := range t.ids {
+		t.ids[i] = int32(i)
+	}
+	t.nodes = make([]kdNode, 0, 4*count/t.leaf+2)
+	t.box = make([]float64, 0, cap(t.nodes)*2*dim)
+	t.splitDim = make([]int8, 0, cap(t.nodes))
+	t.splitVal = make([]float64, 0, cap(t.nodes))
+	outer := make([]float64, 2*dim)
+	for c := 0; c < dim; c++ {
+		col := z[c*delay : c*delay+count]
+		lo, hi := col[0], col[0]
+		for _, v := range col[1:] {
+			lo = min(lo, v)
+			hi = max(hi, v)
+		}
+		outer[c], outer[dim+c] = lo, hi
+	}
+	b := delayBuilder{t: t, z: z, delay: delay, key: make([]float64, count)}
+	b.build(0, count, outer)
+	t.data = make([]float64, count*dim)
+	for k, id := range t.ids {
+		row := t.data[k*dim : (k+1)*dim]
+		for c := range row {
+			row[c] = z[int(id)+c*delay]
+		}
+	}
+	return t
+}
+
+// delayBuilder holds the state of newDelayTree.
+type delayBuilder struct {
+	t     *kdTree
+	z     []float64
+	delay int
+	key   []float64 // scratch: one coordinate of the points, in tree order
+}
+
+// coord returns coordinate c of the point in tree position k.
+func (b *delayBuilder) coord(k, c int) float64 {
+	return b.z[int(b.t.ids[k])+c*b.delay]
+}
+
+// build mirrors kdTree.build step for step.
+func (b *delayBuilder) build(start, end int, outer []float64) int32 {
+	t := b.t
+	d := t.dim
+	me := int32(len(t.nodes))
+	t.nodes = append(t.nodes, kdNode{start: int32(start), end: int32(end), left: -1, right: -1})
+	t.splitDim = append(t.splitDim, -1)
+	t.splitVal = append(t.splitVal, 0)
+	off := len(t.box)
+	for k := 0; k < 2*d; k++ {
+		t.box = append(t.box, 0)
+	}
+	split, spread := 0, -1.0
+	for c := 0; c < d; c++ {
+		if s := outer[d+c] - outer[c]; s > spread {
+			split, spread = c, s
+		}
+	}
+	if end-start > t.leaf && spread > 0 {
+		mid := (start + end) / 2
+		key := b.key[start:end]
+		for k := range key {
+			key[k] = b.coord(start+k, split)
+		}
+		selectNthKeyed(key, t.ids[start:end], mid-start)
+		sv := b.key[mid]
+		t.splitDim[me], t.splitVal[me] = int8(split), sv
+		keep := outer[d+split]
+		outer[d+split] = sv
+		l := b.build(start, mid, outer)
+		outer[d+split] = keep
+		keep = outer[split]
+		outer[split] = sv
+		r := b.build(mid, end, outer)
+		outer[split] = keep
+		t.nodes[me].left, t.nodes[me].right = l, r
+		lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
+		lb, rb := int(l)*2*d, int(r)*2*d
+		for c := 0; c < d; c++ {
+			lo[c] = min(t.box[lb+c], t.box[rb+c])
+			hi[c] = max(t.box[lb+d+c], t.box[rb+d+c])
+		}
+		return me
+	}
+	lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
+	for c := 0; c < d; c++ {
+		v := b.coord(start, c)
+		lo[c], hi[c] = v, v
+	}
+	for i := start + 1; i < end; i++ {
+		for c := 0; c < d; c++ {
+			v := b.coord(i, c)
+			lo[c] = min(lo[c], v)
+			hi[c] = max(hi[c], v)
+		}
+	}
+	return me
+}
+
+// selectNthKeyed is kdTree.selectNth on a key column with the point
+// indices alongside: the same comparisons and the same swaps, so the
+// indices end in the same order.
+func selectNthKeyed(key []float64, ids []int32, k int) {
+	lo, hi := 0, len(key)-1
+	for lo < hi {
+		m := lo + (hi-lo)/2
+		a, b, e := key[lo], key[m], key[hi]
+		pivot := b
+		if (a <= b) == (b <= e) {
+			pivot = b
+		} else if (b <= a) == (a <= e) {
+			pivot = a
+		} else {
+			pivot = e
+		}
+		i, j := lo, hi
+		for i <= j {
+			for key[i] < pivot {
+				i++
+			}
+			for key[j] > pivot {
+				j--
+			}
+			if i <= j {
+				key[i], key[j] = key[j], key[i]
+				ids[i], ids[j] = ids[j], ids[i]
+				i++
+				j--
+			}
+		}
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return
+		}
+	}
 }
 
 // build creates the node for points [start, end) inside the outer box
@@ -495,6 +653,9 @@ func (t *kdTree) leafPairs(na, nb *kdNode, same bool, r float64, mask uint64) in
 		}
 		return cnt
 	}
+	if d <= 3 {
+		return t.leafPairs3(na, nb, same, r, mask)
+	}
 	for i := int(na.start); i < int(na.end); i++ {
 		p := data[i*d : i*d+d]
 		j0 := int(nb.start)
@@ -514,4 +675,191 @@ func (t *kdTree) leafPairs(na, nb *kdNode, same bool, r float64, mask uint64) in
 		}
 	}
 	return cnt
+}
+
+// leafPairs3 is the brute-force part of leafPairs for trees of dimension
+// 2 or 3 (sample entropy's templates): every undecided coordinate is
+// tested for every pair and the tests are combined without branching, so
+// the count is the same as with leafPairs' early exit, at a fraction of
+// the mispredicted branches. A decided coordinate is tested against +Inf,
+// which always passes.
+func (t *kdTree) leafPairs3(na, nb *kdNode, same bool, r float64, mask uint64) int64 {
+	d, data := t.dim, t.data
+	var rc [3]float64
+	for c := range rc {
+		rc[c] = math.Inf(1) // |a − b| > +Inf never
+		if c < d && mask&(1<<c) != 0 {
+			rc[c] = r
+		}
+	}
+	var cnt int64
+	for i := int(na.start); i < int(na.end); i++ {
+		p := data[i*d : i*d+d]
+		j0 := int(nb.start)
+		if same {
+			j0 = i + 1
+		}
+		if d == 2 {
+			p0, p1 := p[0], p[1]
+			for j := j0; j < int(nb.end); j++ {
+				q := data[j*d : j*d+2]
+				far := b2i(math.Abs(q[0]-p0) > rc[0]) | b2i(math.Abs(q[1]-p1) > rc[1])
+				cnt += 1 - far
+			}
+			continue
+		}
+		p0, p1, p2 := p[0], p[1], p[2]
+		for j := j0; j < int(nb.end); j++ {
+			q := data[j*d : j*d+3]
+			far := b2i(math.Abs(q[0]-p0) > rc[0]) | b2i(math.Abs(q[1]-p1) > rc[1]) | b2i(math.Abs(q[2]-p2) > rc[2])
+			cnt += 1 - far
+		}
+	}
+	return cnt
+}
+
+// b2i is 1 for true and 0 for false.
+func b2i(b bool) int64 {
+	if b {
+		return 1
+	}
+	return 0
+}
+
+// tieSearch holds the state of one nearest-neighbour query that reports
+// ties (nearestTie).
+type tieSearch struct {
+	q      []float64 // the first len(q) coordinates are compared
+	qi, w  int       // exclude original indices j with |j − qi| ≤ w
+	m      int       // and j ≥ m
+	euclid bool
+	best   int
+	bd     float64
+	tie    bool
+}
+
+// nearestTie is nearest restricted to points j < m, comparing only the
+// first len(q) coordinates, and reporting whether another point lies at
+// exactly the nearest distance (tie). Unlike nearest, its answer does not
+// depend on the traversal order — the least distance and whether it is
+// shared are properties of the point set — so any tree over a superset of
+// the points serves, however it was built.
+func (t *kdTree) nearestTie(q []float64, qi, w, m int, euclid bool) (int, float64, bool) {
+	s := tieSearch{q: q, qi: qi, w: w, m: m, euclid: euclid, best: -1, bd: math.Inf(1)}
+	t.nnTie(0, &s)
+	if euclid {
+		return s.best, math.Sqrt(s.bd), s.tie
+	}
+	return s.best, s.bd, s.tie
+}
+
+func (t *kdTree) nnTie(n int32, s *tieSearch) {
+	node := &t.nodes[n]
+	if node.left < 0 {
+		D := t.dim
+		for k := int(node.start); k < int(node.end); k++ {
+			id := int(t.ids[k])
+			if dj := id - s.qi; id >= s.m || (dj <= s.w && dj >= -s.w) {
+				continue
+			}
+			p := t.data[k*D : k*D+len(s.q)]
+			var dist float64
+			bd := s.bd
+			if s.euclid {
+				for c, v := range s.q {
+					g := p[c] - v
+					dist += g * g
+					if dist > bd {
+						break
+					}
+				}
+			} else {
+				for c, v := range s.q {
+					dist = max(dist, math.Abs(p[c]-v))
+					if dist > bd {
+						break
+					}
+				}
+			}
+			switch {
+			case dist > bd || dist == 0:
+			case dist < bd:
+				s.best, s.bd, s.tie = id, dist, false
+			default:
+				s.tie = true
+			}
+		}
+		return
+	}
+	first, second := t.children(n, s.q)
+	if t.boxLower(first, s.q, s.euclid) <= s.bd {
+		t.nnTie(first, s)
+	}
+	if t.boxLower(second, s.q, s.euclid) <= s.bd {
+		t.nnTie(second, s)
+	}
+}
+
+// children returns the children of internal node n, the one on q's side of
+// the split first (the left one when the split coordinate is not among
+// q's). The order-free searches visit that one first and test the other's
+// box only afterwards, against the tightened bound.
+func (t *kdTree) children(n int32, q []float64) (first, second int32) {
+	node := &t.nodes[n]
+	if c := int(t.splitDim[n]); c < len(q) && q[c] >= t.splitVal[n] {
+		return node.right, node.left
+	}
+	return node.left, node.right
+}
+
+// kNearestTie fills ids and dists (length k, ascending Euclidean distance
+// over the first len(q) coordinates) with the k points j in [from, to)
+// nearest to q, zero distances included, and reports a tie when the k + 1
+// nearest distances are not all different (see kNearestEuclid of
+// projection, whose contract it shares). top and topD are scratch of
+// length k + 1; the range must hold more than k points of the tree.
+func (t *kdTree) kNearestTie(q []float64, from, to int, ids []int, dists []float64, top []int, topD []float64) bool {
+	s := knnScan{q: q, from: from, to: to, top: top, topD: topD, bound: math.Inf(1)}
+	t.knnTie(0, &s)
+	tie := false
+	for a := 0; a+1 < s.found; a++ {
+		if topD[a] == topD[a+1] {
+			tie = true
+		}
+	}
+	for a := range ids {
+		ids[a], dists[a] = top[a], math.Sqrt(topD[a])
+	}
+	return tie
+}
+
+func (t *kdTree) knnTie(n int32, s *knnScan) {
+	node := &t.nodes[n]
+	if node.left < 0 {
+		D := t.dim
+		for k := int(node.start); k < int(node.end); k++ {
+			j := int(t.ids[k])
+			if j < s.from || j >= s.to {
+				continue
+			}
+			p := t.data[k*D : k*D+len(s.q)]
+			var dist float64
+			for c, v := range s.q {
+				g := p[c] - v
+				dist += g * g
+				if dist > s.bound {
+					break
+				}
+			}
+			s.insert(j, dist)
+		}
+		return
+	}
+	first, second := t.children(n, s.q)
+	if t.boxLower(first, s.q, true) <= s.bound {
+		t.knnTie(first, s)
+	}
+	if t.boxLower(second, s.q, true) <= s.bound {
+		t.knnTie(second, s)
+	}
 }

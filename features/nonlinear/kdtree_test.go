@@ -3,6 +3,7 @@ package nonlinear
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"sort"
 	"testing"
 )
@@ -123,6 +124,43 @@ func TestKDTreeCountsExact(t *testing.T) {
 				}
 				if got := tree.pairsWithin(r); got != wantPairs {
 					t.Fatalf("d=%d quant=%v r=%g: pairs %d, brute force %d", d, quant, r, got, wantPairs)
+				}
+			}
+		}
+	}
+}
+
+// newDelayTree must build exactly the tree that newKDTreeLeaf builds over
+// the materialised delay vectors — same nodes, point order, boxes and
+// coordinates — so that every query, ties included, answers identically
+// (reference: the row-swapping builder, which the nonlinear features were
+// computed with before the delay-vector builder existed). Quantised and
+// flat stretches exercise equal keys in the median selection.
+func TestDelayTreeEqualsRowTree(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	for _, kind := range []string{"gauss", "quantised", "plateaus"} {
+		for _, dim := range []int{1, 2, 3, 5, 9} {
+			for _, delay := range []int{1, 3, 17} {
+				n := 3000
+				z := make([]float64, n)
+				for i := range z {
+					switch kind {
+					case "gauss":
+						z[i] = rng.NormFloat64()
+					case "quantised":
+						z[i] = float64(rng.IntN(5))
+					default:
+						z[i] = float64(i / 40 % 3)
+					}
+				}
+				count := n - (dim-1)*delay - rng.IntN(50)
+				for _, leaf := range []int{1, 10} {
+					want := newKDTreeLeaf(delayVectors(z, dim, delay, count), dim, count, leaf)
+					got := newDelayTree(z, dim, delay, count, leaf)
+					if !slices.Equal(got.ids, want.ids) || !slices.Equal(got.nodes, want.nodes) ||
+						!slices.Equal(got.box, want.box) || !slices.Equal(got.data, want.data) {
+						t.Fatalf("%s dim=%d delay=%d leaf=%d: delay-vector tree differs from the row tree", kind, dim, delay, leaf)
+					}
 				}
 			}
 		}

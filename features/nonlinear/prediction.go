@@ -59,11 +59,30 @@ type PredictionResult struct {
 // sampled much faster than its decorrelation time ρ stays near 1 over 10
 // samples. The series needs at least 200 samples.
 func Prediction(x []float64, opts PredictionOptions) (*PredictionResult, error) {
-	const who = "nonlinear: prediction"
-	z, emb, err := standardEmbed(x, opts.Embed, who)
+	r, err := reconstruct(x, opts.Embed, predictionWho)
 	if err != nil {
 		return nil, err
 	}
+	return r.Prediction(opts)
+}
+
+// predictionWho names Prediction in error messages.
+const predictionWho = "nonlinear: prediction"
+
+// Prediction is the package function Prediction on the reconstructed
+// series, in its embedding (opts.Embed is not read).
+//
+// The nearest library vectors are found by sorted projection while that
+// pays (searchPlan), else by the order-free search of the k-d tree over
+// the library (kNearestTie); a test vector whose d+2 nearest distances are
+// not all different (so that the set or the order of its neighbours
+// depends on how ties are broken) is settled by that tree's own search, so
+// the answers are those of that search alone (see projection). (A search
+// tree over all vectors, filtered to the library, cost twice as much:
+// measured.)
+func (r *Reconstruction) Prediction(opts PredictionOptions) (*PredictionResult, error) {
+	const who = predictionWho
+	z, emb := r.z, r.emb
 	H := orDefault(opts.MaxHorizon, 10)
 	maxTest := orDefault(opts.MaxTest, 1000)
 	maxLib := orDefault(opts.MaxLibrary, 50000)
@@ -79,11 +98,14 @@ func Prediction(x []float64, opts PredictionOptions) (*PredictionResult, error) 
 			who, n, libEnd, testN, d, tau, H, ErrTooShort)
 	}
 	libStart := max(0, libEnd-maxLib)
-	pts := delayVectors(z, d, tau, 0)
-	tree := newKDTree(pts[libStart*d:], d, libEnd-libStart)
+	proj := r.projectionOf(z, d, tau)
+	var tree *kdTree // over the library, on first use
 	k := d + 1
+	plan := searchPlan{n: libEnd - libStart, noProj: libEnd-libStart <= k, noFast: libEnd-libStart <= k}
 	ids := make([]int, k)
 	dists := make([]float64, k)
+	top, topD := make([]int, k+1), make([]float64, k+1)
+	q := make([]float64, d)
 	w := make([]float64, k)
 	tests := evenlySpaced(testN, maxTest)
 	fc := make([][]float64, H) // forecasts per horizon
@@ -94,7 +116,31 @@ func Prediction(x []float64, opts PredictionOptions) (*PredictionResult, error) 
 	}
 	for ti, off := range tests {
 		t := half + off
-		got := tree.kNearest(pts[t*d:(t+1)*d], ids, dists)
+		got, tie := k, true
+		for c := range q {
+			q[c] = z[t+c*tau]
+		}
+		useProj, fast := plan.next()
+		if useProj {
+			var c int
+			tie, c = proj.kNearestEuclid(t, d, libStart, libEnd, ids, dists, top, topD)
+			plan.record(c, tie)
+		}
+		if tie { // the tree answers, with indices relative to libStart
+			if tree == nil {
+				tree = newDelayTree(z[libStart:], d, tau, libEnd-libStart, kdLeafSize)
+			}
+			if fast && !useProj {
+				tie = tree.kNearestTie(q, 0, libEnd-libStart, ids, dists, top, topD)
+				plan.record(0, tie)
+			}
+			if tie {
+				got = tree.kNearest(q, ids, dists)
+			}
+			for j := range got {
+				ids[j] += libStart
+			}
+		}
 		var sw float64
 		for j := 0; j < got; j++ {
 			switch {
@@ -111,7 +157,7 @@ func Prediction(x []float64, opts PredictionOptions) (*PredictionResult, error) 
 		for h := 1; h <= H; h++ {
 			var s float64
 			for j := 0; j < got; j++ {
-				s += w[j] * z[libStart+ids[j]+span+h]
+				s += w[j] * z[ids[j]+span+h]
 			}
 			fc[h-1][ti] = s / sw
 			tr[h-1][ti] = z[t+span+h]

@@ -161,11 +161,21 @@ const (
 // time unit. The series needs at least 200 samples (Embed) and room for
 // 4·K vectors.
 func Lyapunov(x []float64, opts LyapunovOptions) (*LyapunovResult, error) {
-	const who = "nonlinear: lyapunov"
-	z, emb, err := standardEmbed(x, opts.Embed, who)
+	r, err := reconstruct(x, opts.Embed, lyapWho)
 	if err != nil {
 		return nil, err
 	}
+	return r.Lyapunov(opts)
+}
+
+// lyapWho names Lyapunov in error messages.
+const lyapWho = "nonlinear: lyapunov"
+
+// Lyapunov is the package function Lyapunov on the reconstructed series,
+// in its embedding (opts.Embed is not read).
+func (r *Reconstruction) Lyapunov(opts LyapunovOptions) (*LyapunovResult, error) {
+	const who = lyapWho
+	z, emb := r.z, r.emb
 	d, tau, w := emb.Dim, emb.Delay, emb.Theiler
 	m := len(z) - (d-1)*tau
 	K := opts.MaxSteps
@@ -182,10 +192,9 @@ func Lyapunov(x []float64, opts LyapunovOptions) (*LyapunovResult, error) {
 	minR2 := orDefault(opts.MinR2, 0.98)
 	minSteps := orDefault(opts.MinSteps, max(5, 4*tau))
 	step := max(1, min(tau/lyapStepsPerTau, K/20)) // at least 20 curve points
-	pts := delayVectors(z, d, tau, 0)
-	tree := newKDTree(pts, d, L)
+	pts := r.delayVectors()
 	refs := evenlySpaced(L, maxRef)
-	pairs, eps := nearPairs(tree, pts, refs, d, w)
+	pairs, eps := r.nearPairs(refs, L)
 	res := &LyapunovResult{Lambda: math.NaN(), R2: math.NaN(), Step: step, Refs: len(refs), Pairs: len(pairs) / 2, Epsilon: eps, Embedding: *emb}
 	if len(pairs) == 0 {
 		return nil, fmt.Errorf("%s: no reference has a distinct neighbour outside the Theiler window %d: %w", who, w, ErrDegenerate)
@@ -199,7 +208,7 @@ func Lyapunov(x []float64, opts LyapunovOptions) (*LyapunovResult, error) {
 		res.Curve, res.Trimmed = iqm, true
 	}
 	judgeDivergence(res, d*tau, max(2, 4*tau), minSteps, minR2)
-	if maxLag := orDefault(opts.Embed.AMI.MaxLag, defaultMaxLag(len(z))); res.Credible && emb.ACFTime >= maxLag {
+	if maxLag := r.maxLag; res.Credible && emb.ACFTime >= maxLag {
 		res.Lambda, res.Credible = math.NaN(), false
 		res.Reason = fmt.Sprintf("the autocorrelation stays above 1/e for %d samples (a random walk or drift, not a recurrent attractor)", maxLag)
 	}
@@ -251,19 +260,60 @@ func meanOf(v []float64) float64 {
 	return s / float64(len(v))
 }
 
-// nearPairs finds the nearest neighbour (Euclidean, outside the Theiler
-// window w, distinct) of each reference vector and returns the pairs
-// (reference, neighbour) flattened, keeping those whose distance is at
-// most ε, the lyapKeepShare quantile (the median) of the neighbour
-// distances, and ε itself.
-func nearPairs(tree *kdTree, pts []float64, refs []int, d, w int) ([]int, float64) {
+// nearPairs finds the nearest neighbour (Euclidean, among the first L
+// delay vectors of the embedding, outside its Theiler window, distinct)
+// of each reference vector and returns the pairs (reference, neighbour)
+// flattened, keeping those whose distance is at most ε, the lyapKeepShare
+// quantile (the median) of the neighbour distances, and ε itself. The
+// search is by sorted projection while that pays (searchPlan), else by the
+// order-free search (nearestTie) of the search tree of Cao's method when it
+// covers the series or of the k-d tree over the L vectors; a reference
+// with several neighbours at exactly the nearest distance is settled by
+// the latter tree's own search, so the answers are those of that search
+// alone (see projection).
+func (r *Reconstruction) nearPairs(refs []int, L int) ([]int, float64) {
+	z, d, tau, w := r.z, r.emb.Dim, r.emb.Delay, r.emb.Theiler
+	proj := r.projectionOf(z, d, tau)
+	// Cao's search tree serves when it covers the series.
+	shared := r.tree
+	if shared != nil && (shared.dim < d || r.tdelay != tau || len(shared.ids) < L) {
+		shared = nil
+	}
+	var tree *kdTree
 	nb := make([]int, len(refs))
 	dist := make([]float64, 0, len(refs))
+	q := make([]float64, d)
+	plan := searchPlan{n: L}
 	for k, j := range refs {
-		var r float64
-		nb[k], r = tree.nearest(pts[j*d:(j+1)*d], j, w, true)
+		var r1 float64
+		tie := true
+		for c := range q {
+			q[c] = z[j+c*tau]
+		}
+		switch useProj, fast := plan.next(); {
+		case useProj:
+			var c int
+			nb[k], r1, tie, c = proj.nearestEuclid(j, d, L, w)
+			plan.record(c, tie)
+		case fast:
+			t := shared
+			if t == nil {
+				if tree == nil {
+					tree = newDelayTree(z, d, tau, L, kdLeafSize)
+				}
+				t = tree
+			}
+			nb[k], r1, tie = t.nearestTie(q, j, w, L, true)
+			plan.record(0, tie)
+		}
+		if tie {
+			if tree == nil {
+				tree = newDelayTree(z, d, tau, L, kdLeafSize)
+			}
+			nb[k], r1 = tree.nearest(q, j, w, true)
+		}
 		if nb[k] >= 0 {
-			dist = append(dist, r)
+			dist = append(dist, r1)
 		}
 	}
 	if len(dist) == 0 {

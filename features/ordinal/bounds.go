@@ -17,7 +17,7 @@ type PlanePoint struct {
 // families with m zero probabilities, one probability p ≤ 1/(N−m) and the
 // remaining N−m−1 equal, m = 0 … N−2, each family covering the entropy range
 // [ln(N−m−1), ln(N−m)]/ln N. Martin, Plastino & Rosso, Physica A 369 (2006)
-// 439 (memory); the extremality is checked numerically in the package tests.
+// 439 (checked: search.r-project.org/CRAN/refmans/statcomp/html/maxd6.html); the extremality is checked numerically in the package tests.
 func Bounds(order int, h float64) (cmin, cmax float64, err error) {
 	if order < MinOrder || order > MaxOrder {
 		return 0, 0, fmt.Errorf("complexity bounds: %w: order %d, want %d ≤ d ≤ %d", ErrBadOption, order, MinOrder, MaxOrder)

@@ -59,7 +59,7 @@ func DefaultDFAMinWindow(order int) int {
 // polynomial of order opts.Order within non-overlapping windows of s
 // samples. Windows are laid from the start and again from the end of the
 // series, so 2·⌊n/s⌋ windows cover every sample (common practice,
-// Kantelhardt et al., Physica A 316 (2002) 87 (memory)). α = H for
+// Kantelhardt et al., Physica A 316 (2002) 87; checked: search.r-project.org/CRAN/refmans/MFDFA/html/MFDFA.html). α = H for
 // fractional Gaussian noise, 0.5 for white noise, 1.5 for Brownian motion.
 // Peng et al., Phys. Rev. E 49 (1994) 1685.
 //

@@ -12,14 +12,14 @@ const (
 	// CorrectionAnisLloyd (the default) divides the observed mean R/S by
 	// its exact expectation for i.i.d. Gaussian noise, the Anis–Lloyd
 	// formula, and reports H = 0.5 + slope of ln(R/S_obs / E[R/S]_AL)
-	// against ln n. Anis & Lloyd, Biometrika 63 (1976) 111 (memory). With
+	// against ln n. Anis & Lloyd, Biometrika 63 (1976) 111 (confirmed: neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py). With
 	// the R/S defined here (S with divisor n) the formula matches a Monte
 	// Carlo mean to 0.1% already at n = 8 (see the package tests).
 	CorrectionAnisLloyd RSCorrection = iota
 	// CorrectionAnisLloydPeters multiplies the Anis–Lloyd expectation by
 	// Peters' empirical factor (n − ½)/n (Peters, Fractal Market Analysis
 	// (1994) (memory); the variant used by Weron, Physica A 312 (2002) 285
-	// (memory)). It changes H by a few thousandths at the default block
+	// , checked: search.r-project.org/CRAN/refmans/pracma/html/hurst.html). It changes H by a few thousandths at the default block
 	// lengths.
 	CorrectionAnisLloydPeters
 	// CorrectionNone is Hurst's classical estimate: H = slope of
@@ -46,7 +46,7 @@ type RSOptions struct {
 	// MinWindow is the smallest block length. 0 means 50: the corrected
 	// statistic is commonly fitted from block lengths of about 50 up, where
 	// the short-block bias of E[R/S] for persistent noise has faded
-	// (common practice; Weron, Physica A 312 (2002) 285 (memory)).
+	// (common practice; Weron, Physica A 312 (2002) 285, checked: search.r-project.org/CRAN/refmans/pracma/html/hurst.html).
 	MinWindow int
 	// MaxWindow is the largest block length. 0 means n/4, so every block
 	// length is averaged over at least 4 blocks.
@@ -87,7 +87,7 @@ type RSResult struct {
 // expectation for i.i.d. Gaussian noise (the Gamma ratio is evaluated with
 // ln Γ, so no large-n switch is needed). Subtracting the i.i.d. curve
 // removes the small-block bias that inflates the classical estimate.
-// Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111 (memory).
+// Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111 (confirmed: neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py).
 //
 // Blocks with S = 0 are skipped. The caller must supply at least
 // 4·MinWindow finite samples that are not all equal. H is invariant under
@@ -212,7 +212,7 @@ func blockRS(b []float64, g float64) (float64, bool) {
 // samples by the Anis–Lloyd formula
 // Γ((n−1)/2)/(√π Γ(n/2)) · Σ_{i=1}^{n−1} √((n−i)/i), multiplied by Peters'
 // factor (n − ½)/n when peters is true. Anis & Lloyd, Biometrika 63 (1976)
-// 111 (memory); Peters (1994) (memory). n must be at least 2; for n < 2 it
+// 111 (confirmed: neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py); Peters (1994) (memory). n must be at least 2; for n < 2 it
 // returns NaN.
 func ExpectedRS(n int, peters bool) float64 {
 	if n < 2 {

@@ -7,7 +7,7 @@ import (
 
 // TestRescaledRangeFractionalGaussianNoise checks H within 0.1 for fGn at
 // n = 2^14 with the Anis–Lloyd correction (Hurst 1951; Anis & Lloyd,
-// Biometrika 63 (1976) 111 (memory)). R/S is noisier than DFA (seed sd
+// Biometrika 63 (1976) 111; confirmed: neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py). R/S is noisier than DFA (seed sd
 // about 0.03 here) and known to underestimate strongly persistent noise, so
 // the mean over 8 seeds is checked (sd ≈ 0.01).
 func TestRescaledRangeFractionalGaussianNoise(t *testing.T) {
@@ -21,7 +21,7 @@ func TestRescaledRangeFractionalGaussianNoise(t *testing.T) {
 			}
 			mean += r.H / seeds
 		}
-		// fGn: H with small-sample correction, Anis & Lloyd (1976) (memory).
+		// fGn: H with small-sample correction, Anis & Lloyd (1976), as in neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py.
 		if math.Abs(mean-h) > 0.1 {
 			t.Errorf("R/S fGn H=%.1f: mean estimate %.3f, want ± 0.1", h, mean)
 		}
@@ -49,7 +49,7 @@ func TestExpectedRSMonteCarlo(t *testing.T) {
 		}
 		mc := s / float64(k)
 		se := math.Sqrt((ss/float64(k) - mc*mc) / float64(k))
-		al := ExpectedRS(n, false) // Anis & Lloyd (1976) (memory)
+		al := ExpectedRS(n, false) // Anis & Lloyd (1976), formula as in neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py
 		if math.Abs(mc-al) > 4*se {
 			t.Errorf("n=%d: Monte Carlo E[R/S] = %.4f ± %.4f, Anis–Lloyd %.4f", n, mc, se, al)
 		}
@@ -62,7 +62,7 @@ func TestExpectedRSMonteCarlo(t *testing.T) {
 }
 
 // TestExpectedRSAsymptote checks E[R/S] → √(πn/2) (the expected range of
-// a Brownian bridge, Feller, Ann. Math. Stat. 22 (1951) 427 (memory)); the
+// a Brownian bridge, Feller, Ann. Math. Stat. 22 (1951) 427; cited as such in mne-tools/mne-features mne_features/tests/test_univariate.py); the
 // finite-n correction is O(n^{−1/2}), about 0.3% at n = 10^5.
 func TestExpectedRSAsymptote(t *testing.T) {
 	n := 100000
@@ -77,7 +77,7 @@ func TestExpectedRSAsymptote(t *testing.T) {
 
 // TestRescaledRangeCorrections checks that the classical (uncorrected)
 // estimate of white noise is biased upwards at short blocks while the
-// Anis–Lloyd-corrected one is not (Anis & Lloyd 1976 (memory): the bias of
+// Anis–Lloyd-corrected one is not (Anis & Lloyd 1976, as in neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py: the bias of
 // the classical estimate is what the correction removes).
 func TestRescaledRangeCorrections(t *testing.T) {
 	x := white(1<<14, newRNG(21))

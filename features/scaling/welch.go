@@ -47,7 +47,7 @@ func DefaultSegment(n int) int {
 // (the last partial segment is dropped), each segment has its mean removed
 // and is multiplied by a periodic Hann window w_t = sin²(πt/L), and the
 // periodograms |FFT|²/Σw² are averaged (doubled for 0 < f < ½).
-// Welch, IEEE Trans. Audio Electroacoust. 15 (1967) 70 (memory).
+// Welch, IEEE Trans. Audio Electroacoust. 15 (1967) 70 (checked: rdrr.io/cran/rsleep/man/pwelch.html).
 //
 // The caller must supply at least max(Segment, 256) finite samples (16 when
 // Segment is given explicitly) that are not all equal. Cost O(n log L).

@@ -121,17 +121,19 @@ func BenchmarkClustering(b *testing.B) {
 }
 
 func BenchmarkLouvain(b *testing.B) {
-	for _, series := range []string{"gauss", "brown"} {
-		for _, n := range benchSizes {
-			b.Run(fmt.Sprintf("nvg/%s/n=%d", series, n), func(b *testing.B) {
-				g := benchGraph(b, KindNVG, series, n)
-				b.ReportAllocs()
-				var p Partition
-				for b.Loop() {
-					p, _ = Louvain(g, LouvainOptions{})
-				}
-				b.ReportMetric(p.Modularity, "Q")
-			})
+	for _, kind := range []Kind{KindNVG, KindHVG} {
+		for _, series := range []string{"gauss", "brown"} {
+			for _, n := range benchSizes {
+				b.Run(fmt.Sprintf("%v/%s/n=%d", kind, series, n), func(b *testing.B) {
+					g := benchGraph(b, kind, series, n)
+					b.ReportAllocs()
+					var p Partition
+					for b.Loop() {
+						p, _ = Louvain(g, LouvainOptions{})
+					}
+					b.ReportMetric(p.Modularity, "Q")
+				})
+			}
 		}
 	}
 }
@@ -168,12 +170,14 @@ func BenchmarkMeasure(b *testing.B) {
 }
 
 func BenchmarkPaths(b *testing.B) {
-	for _, n := range []int{100_000, 1_000_000} {
-		b.Run(fmt.Sprintf("nvg/brown/n=%d", n), func(b *testing.B) {
-			g := benchGraph(b, KindNVG, "brown", n)
-			for b.Loop() {
-				Paths(g, PathOptions{})
-			}
-		})
+	for _, series := range []string{"gauss", "brown"} {
+		for _, n := range []int{100_000, 1_000_000} {
+			b.Run(fmt.Sprintf("nvg/%s/n=%d", series, n), func(b *testing.B) {
+				g := benchGraph(b, KindNVG, series, n)
+				for b.Loop() {
+					Paths(g, PathOptions{})
+				}
+			})
+		}
 	}
 }

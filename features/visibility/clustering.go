@@ -2,116 +2,10 @@ package visibility
 
 import (
 	"math"
-	"runtime"
 	"slices"
-	"sync"
-	"sync/atomic"
 
 	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
-
-// Triangles returns, for every node, the number of triangles through it.
-//
-// Algorithm ("forward" triangle listing with degree ordering; Schank &
-// Wagner, WEA 2005, LNCS 3503 p. 606; Latapy, Theor. Comput. Sci. 407 (2008)
-// 458): rank nodes by (degree, index), keep for each node only the
-// neighbours of higher rank (at most √(2E) of them), and for each arc u → v
-// look up the higher-ranked neighbours of v in a stamp array of u's. Each
-// triangle is found exactly once, from its lowest-ranked corner, and hubs
-// cost nothing extra because their forward lists are short. O(E^{3/2}) in
-// the worst case, far less on visibility graphs. Runs on GOMAXPROCS threads;
-// the counts do not depend on the thread count.
-func Triangles(g *Graph) []int64 {
-	n := g.Len()
-	t := make([]int64, n)
-	if n == 0 {
-		return t
-	}
-	deg := make([]int32, n)
-	for i := range deg {
-		deg[i] = int32(g.offsets[i+1] - g.offsets[i])
-	}
-	// higher(u, v): v ranks above u in the (degree, index) order.
-	higher := func(u, v int32) bool {
-		du, dv := deg[u], deg[v]
-		return dv > du || (dv == du && v > u)
-	}
-	// Forward adjacency in CSR (subsets of sorted lists stay sorted).
-	foff := make([]int64, n+1)
-	for u := 0; u < n; u++ {
-		c := int64(0)
-		for _, v := range g.Neighbors(u) {
-			if higher(int32(u), v) {
-				c++
-			}
-		}
-		foff[u+1] = foff[u] + c
-	}
-	fadj := make([]int32, foff[n])
-	for u := 0; u < n; u++ {
-		p := foff[u]
-		for _, v := range g.Neighbors(u) {
-			if higher(int32(u), v) {
-				fadj[p] = v
-				p++
-			}
-		}
-	}
-	// Workers take blocks of source nodes from a shared counter and count
-	// into private arrays; integer sums do not depend on the split, so the
-	// result is the same for any number of workers.
-	const block = 4096
-	workers := min(runtime.GOMAXPROCS(0), (n+block-1)/block)
-	var next atomic.Int64
-	parts := make([][]int64, workers)
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func(w int) {
-			defer wg.Done()
-			tw := t
-			if w > 0 {
-				tw = make([]int64, n)
-			}
-			parts[w] = tw
-			stamp := make([]int32, n)
-			for i := range stamp {
-				stamp[i] = -1
-			}
-			for {
-				lo := int(next.Add(block)) - block
-				if lo >= n {
-					return
-				}
-				for u := lo; u < min(lo+block, n); u++ {
-					fu := fadj[foff[u]:foff[u+1]]
-					if len(fu) < 2 {
-						continue
-					}
-					for _, v := range fu {
-						stamp[v] = int32(u)
-					}
-					for _, v := range fu {
-						for _, w := range fadj[foff[v]:foff[v+1]] {
-							if stamp[w] == int32(u) {
-								tw[u]++
-								tw[v]++
-								tw[w]++
-							}
-						}
-					}
-				}
-			}
-		}(w)
-	}
-	wg.Wait()
-	for _, p := range parts[1:] {
-		for i, c := range p {
-			t[i] += c
-		}
-	}
-	return t
-}
 
 // LocalClustering returns the local clustering coefficient of every node,
 // C_i = 2·T_i/(k_i(k_i − 1)) with T_i the triangles through i (Watts &
@@ -172,40 +66,63 @@ const clusteringBins = 20
 // Clustering returns the local clustering coefficients of g (see
 // LocalClustering) and their summary.
 func Clustering(g *Graph) ([]float64, ClusteringStats) {
+	c := make([]float64, g.Len())
+	return c, clusteringStats(g, c)
+}
+
+// clusteringStats returns the summary of Clustering, and fills c with the
+// local coefficients unless c is nil (Measure needs only the summary, and
+// at 10^7 nodes the coefficients would take 80 MB). The triangle counts
+// are int32 when every degree allows it (half the memory of int64).
+func clusteringStats(g *Graph, c []float64) ClusteringStats {
+	if maxDegree(g) <= 1<<16 {
+		t := make([]int32, g.Len())
+		countTriangles(g, t)
+		return summariseClustering(g, t, c)
+	}
+	t := make([]int64, g.Len())
+	countTriangles(g, t)
+	return summariseClustering(g, t, c)
+}
+
+// summariseClustering computes the statistics of ClusteringStats from the
+// per-node triangle counts t, recomputing each local coefficient where it
+// is needed instead of storing them all (and storing them in c if non-nil).
+// Every sum runs over the nodes in index order, as with stored values.
+func summariseClustering[T triCount](g *Graph, t []T, c []float64) ClusteringStats {
 	n := g.Len()
-	t := Triangles(g)
-	c := make([]float64, n)
 	st := ClusteringStats{Mean: math.NaN(), Std: math.NaN(), Transitivity: math.NaN()}
 	if n == 0 {
-		return c, st
+		return st
 	}
-	var sum3, triples float64
+	local := func(i int) float64 {
+		if k := g.Degree(i); k >= 2 {
+			kf := float64(k)
+			return 2 * float64(t[i]) / (kf * (kf - 1))
+		}
+		return 0
+	}
+	var sum3, triples, s float64
 	maxd := 0
 	for i := range t {
 		k := g.Degree(i)
 		maxd = max(maxd, k)
+		v := local(i)
 		if k >= 2 {
 			kf := float64(k)
-			c[i] = 2 * float64(t[i]) / (kf * (kf - 1))
 			triples += kf * (kf - 1) / 2
 		}
 		sum3 += float64(t[i])
+		s += v
+		if c != nil {
+			c[i] = v
+		}
 	}
 	st.Triangles = int64(math.Round(sum3 / 3))
 	if triples > 0 {
 		st.Transitivity = sum3 / triples // 3·triangles / triples
 	}
-	var s float64
-	for _, v := range c {
-		s += v
-	}
 	st.Mean = s / float64(n)
-	var s2 float64
-	for _, v := range c {
-		d := v - st.Mean
-		s2 += d * d
-	}
-	st.Std = math.Sqrt(s2 / float64(n))
 	st.Histogram = make([]ClusteringBin, clusteringBins)
 	for b := range st.Histogram {
 		st.Histogram[b].Lo = float64(b) / clusteringBins
@@ -213,18 +130,23 @@ func Clustering(g *Graph) ([]float64, ClusteringStats) {
 	}
 	sumK := make([]float64, maxd+1)
 	cntK := make([]int64, maxd+1)
-	for i, v := range c {
+	var s2 float64
+	for i := range t {
+		v := local(i)
+		d := v - st.Mean
+		s2 += d * d
 		b := min(int(v*clusteringBins), clusteringBins-1)
 		st.Histogram[b].Count++
 		k := g.Degree(i)
 		sumK[k] += v
 		cntK[k]++
 	}
+	st.Std = math.Sqrt(s2 / float64(n))
 	for k := range cntK {
 		if cntK[k] > 0 {
 			st.ByDegree = append(st.ByDegree, ClusteringByDegree{K: k, Count: cntK[k], Mean: sumK[k] / float64(cntK[k])})
 		}
 	}
 	st.ByDegree = slices.Clip(st.ByDegree)
-	return c, st
+	return st
 }

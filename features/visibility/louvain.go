@@ -18,6 +18,12 @@ import (
 // resolution as in gonum's community.Q and NetworkX's modularity.
 // ErrUndefined for a graph without edges.
 func Modularity(g *Graph, community []int32, resolution float64) (float64, error) {
+	return modularity(g, community, g.Len(), resolution)
+}
+
+// modularity is Modularity for labels below nc (the sums run over labels
+// 0..nc−1, so Louvain's numbered communities need arrays of nc, not n).
+func modularity(g *Graph, community []int32, nc int, resolution float64) (float64, error) {
 	n := g.Len()
 	if len(community) != n {
 		return math.NaN(), fmt.Errorf("modularity: %d labels for %d nodes", len(community), n)
@@ -28,12 +34,12 @@ func Modularity(g *Graph, community []int32, resolution float64) (float64, error
 	if resolution == 0 {
 		resolution = 1
 	}
-	in := make([]float64, n)
-	tot := make([]float64, n)
+	in := make([]float64, nc)
+	tot := make([]float64, nc)
 	for i := 0; i < n; i++ {
 		c := community[i]
-		if c < 0 || int(c) >= n {
-			return math.NaN(), fmt.Errorf("modularity: node %d has community %d, want 0..%d", i, c, n-1)
+		if c < 0 || int(c) >= nc {
+			return math.NaN(), fmt.Errorf("modularity: node %d has community %d, want 0..%d", i, c, nc-1)
 		}
 		tot[c] += float64(g.Degree(i))
 		for _, j := range g.Neighbors(i) {
@@ -86,7 +92,6 @@ func (p Partition) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(p, js
 // graphs take seconds. Modularity as in Modularity.
 // ErrUndefined for a graph without edges.
 func Louvain(g *Graph, opts LouvainOptions) (Partition, error) {
-	n := g.Len()
 	p := Partition{Modularity: math.NaN()}
 	if g.Edges() == 0 {
 		return p, fmt.Errorf("louvain: no edges: %w", ErrUndefined)
@@ -95,26 +100,11 @@ func Louvain(g *Graph, opts LouvainOptions) (Partition, error) {
 	if res == 0 {
 		res = 1
 	}
-	lv := &wgraph{off: g.offsets, nbr: g.adj, loop: make([]float64, n), k: make([]float64, n)}
-	for i := 0; i < n; i++ {
-		lv.k[i] = float64(g.Degree(i))
-	}
-	lv.m2 = float64(2 * g.Edges())
-	member := make([]int32, n)
-	for i := range member {
-		member[i] = int32(i)
-	}
-	for {
-		comm, moved := lv.localMove(res, opts.Rand)
-		nc := renumber(comm)
-		if !moved || nc == lv.n() {
-			break
-		}
-		for i := range member {
-			member[i] = comm[member[i]]
-		}
-		lv = lv.aggregate(comm, nc)
-		p.Levels++
+	var member []int32
+	if 2*g.Edges() <= math.MaxUint32 {
+		member, p.Levels = louvainLevels[uint32](g, res, opts.Rand)
+	} else {
+		member, p.Levels = louvainLevels[float64](g, res, opts.Rand)
 	}
 	renumber(member)
 	p.Community = member
@@ -123,7 +113,7 @@ func Louvain(g *Graph, opts LouvainOptions) (Partition, error) {
 		nc = max(nc, int(c)+1)
 	}
 	p.Communities = nc
-	q, err := Modularity(g, member, res)
+	q, err := modularity(g, member, nc, res)
 	if err != nil {
 		return p, fmt.Errorf("louvain: %w", err)
 	}
@@ -131,35 +121,94 @@ func Louvain(g *Graph, opts LouvainOptions) (Partition, error) {
 	return p, nil
 }
 
-// wgraph is a weighted graph of one Louvain level: neighbours in CSR (each
-// non-loop edge listed at both ends), weights w (nil means all 1), self-loop
-// weights loop, strengths k_i = Σ_j w_ij + 2·loop_i and 2m = Σ k.
-type wgraph struct {
-	off  []int64
-	nbr  []int32
-	w    []float64
-	loop []float64
-	k    []float64
-	m2   float64
+// louvainLevels runs the levels of Louvain and returns the community of
+// each node of g (not yet renumbered) and the number of aggregations.
+func louvainLevels[W weight](g *Graph, res float64, rng *rand.Rand) (member []int32, levels int) {
+	n := g.Len()
+	// The input level: strengths are the degrees, no self-loops, no weights.
+	lv := &wgraph[W]{off: g.offsets, nbr: g.adj, nodes: n, m2: float64(2 * g.Edges())}
+	// member[i] is the community of input node i; nil while it is i.
+	for {
+		comm, moved := lv.localMove(res, rng)
+		nc := renumber(comm)
+		if !moved || nc == lv.n() {
+			break
+		}
+		if member == nil {
+			member = comm // the input level's communities (aggregate only reads comm)
+		} else {
+			for i := range member {
+				member[i] = comm[member[i]]
+			}
+		}
+		lv = lv.aggregate(comm, nc)
+		levels++
+	}
+	if member == nil {
+		member = make([]int32, n)
+		for i := range member {
+			member[i] = int32(i)
+		}
+	}
+	return member, levels
 }
 
-func (g *wgraph) n() int { return len(g.k) }
+// wgraph is a weighted graph of one Louvain level: neighbours in CSR (each
+// non-loop edge listed at both ends), weights w (nil means all 1), self-loop
+// weights loop, strengths k_i = Σ_j w_ij + 2·loop_i and 2m = Σ k. The input
+// level has k and loop nil (strengths are degrees, no loops): at 10^7 nodes
+// the two arrays would take 160 MB for values the CSR offsets hold.
+//
+// Every weight, loop and strength is a count of input edges (ends), so W =
+// uint32 holds them exactly when 2E < 2^32, in half the memory of float64;
+// the arithmetic is done in float64 on the same integer values either way,
+// so both give the same partition.
+type wgraph[W weight] struct {
+	off   []int64
+	nbr   []int32
+	w     []W
+	loop  []W
+	k     []W
+	m2    float64
+	nodes int
+}
+
+// weight is the storage type of wgraph's weights.
+type weight interface{ ~uint32 | ~float64 }
+
+func (g *wgraph[W]) n() int { return g.nodes }
+
+// strength returns k_i.
+func (g *wgraph[W]) strength(i int) float64 {
+	if g.k == nil {
+		return float64(g.off[i+1] - g.off[i])
+	}
+	return float64(g.k[i])
+}
+
+// weightAt returns the weight of the adjacency entry e.
+func (g *wgraph[W]) weightAt(e int64) float64 {
+	if g.w == nil {
+		return 1
+	}
+	return float64(g.w[e])
+}
 
 // localMove runs the node-moving phase and returns the community of each
 // node and whether any node moved. It uses a queue instead of repeated full
 // passes ("fast local moving", Traag, Waltman & van Eck, Sci. Rep. 9 (2019)
-// 5233 (memory)): every node is queued once, and when a node moves, its
+// 5233; citation checked: search.r-project.org/CRAN/packages/leidenAlg/index.html): every node is queued once, and when a node moves, its
 // neighbours outside its new community are queued again. The phase ends when
 // the queue is empty, i.e. no node can gain more than gainTol by moving —
 // the same stopping point as passes until nothing moves, without rescanning
 // settled nodes. FIFO order keeps it deterministic.
-func (g *wgraph) localMove(res float64, rng *rand.Rand) ([]int32, bool) {
+func (g *wgraph[W]) localMove(res float64, rng *rand.Rand) ([]int32, bool) {
 	n := g.n()
 	comm := make([]int32, n)
-	tot := make([]float64, n)
+	tot := make([]W, n) // Σ strengths of each community (integers, exact in W)
 	for i := range comm {
 		comm[i] = int32(i)
-		tot[i] = g.k[i]
+		tot[i] = W(g.strength(i))
 	}
 	queue := make([]int32, n) // ring buffer, holds each node at most once
 	for i := range queue {
@@ -168,14 +217,12 @@ func (g *wgraph) localMove(res float64, rng *rand.Rand) ([]int32, bool) {
 	if rng != nil {
 		rng.Shuffle(n, func(a, b int) { queue[a], queue[b] = queue[b], queue[a] })
 	}
-	queued := make([]bool, n)
+	queued := make([]uint64, (n+63)/64) // bit set
 	for i := range queued {
-		queued[i] = true
+		queued[i] = ^uint64(0)
 	}
 	head, size := 0, n
-	wto := make([]float64, n) // weight from the current node to each community
-	seen := make([]bool, n)
-	touched := make([]int32, 0, 64)
+	var to commSums // weight from the current node to each neighbouring community
 	anyMove := false
 	// A move is taken only if it gains more than gainTol (in units of edge
 	// weight), so float rounding cannot make nodes oscillate.
@@ -187,39 +234,26 @@ func (g *wgraph) localMove(res float64, rng *rand.Rand) ([]int32, bool) {
 			head = 0
 		}
 		size--
-		queued[i] = false
+		queued[i>>6] &^= 1 << (i & 63)
 		ci := comm[i]
-		touched = touched[:0]
 		for e := g.off[i]; e < g.off[i+1]; e++ {
-			c := comm[g.nbr[e]]
-			w := 1.0
-			if g.w != nil {
-				w = g.w[e]
-			}
-			if !seen[c] {
-				seen[c] = true
-				touched = append(touched, c)
-			}
-			wto[c] += w
+			to.add(comm[g.nbr[e]], g.weightAt(e), n)
 		}
-		ki := g.k[i]
-		tot[ci] -= ki
+		ki := g.strength(i)
+		tot[ci] -= W(ki)
 		f := res * ki / g.m2
-		stay := wto[ci] - f*tot[ci]
+		stay := to.get(ci) - f*float64(tot[ci])
 		best, bestGain := ci, stay
-		for _, c := range touched {
+		for k, c := range to.ids {
 			if c == ci {
 				continue
 			}
-			if gain := wto[c] - f*tot[c]; gain > bestGain+gainTol {
+			if gain := to.sums[k] - f*float64(tot[c]); gain > bestGain+gainTol {
 				best, bestGain = c, gain
 			}
 		}
-		tot[best] += ki
-		for _, c := range touched {
-			wto[c] = 0
-			seen[c] = false
-		}
+		tot[best] += W(ki)
+		to.reset()
 		if best == ci {
 			continue
 		}
@@ -227,8 +261,8 @@ func (g *wgraph) localMove(res float64, rng *rand.Rand) ([]int32, bool) {
 		anyMove = true
 		for e := g.off[i]; e < g.off[i+1]; e++ {
 			j := g.nbr[e]
-			if !queued[j] && comm[j] != best {
-				queued[j] = true
+			if queued[j>>6]&(1<<(j&63)) == 0 && comm[j] != best {
+				queued[j>>6] |= 1 << (j & 63)
 				tail := head + size
 				if tail >= n {
 					tail -= n
@@ -239,6 +273,79 @@ func (g *wgraph) localMove(res float64, rng *rand.Rand) ([]int32, bool) {
 		}
 	}
 	return comm, anyMove
+}
+
+// commSums accumulates weights by community, keeping the communities in
+// order of first appearance with their sums in the order the weights come.
+// Up to commSumsShort communities are found by a linear search of the list;
+// past that, an index by community (one int32 per community, allocated on
+// first need and kept) takes over. A node of an HVG or of a noise NVG never
+// needs the index, which at 10^7 nodes would take 40 MB.
+type commSums struct {
+	ids  []int32   // communities, in order of first appearance
+	sums []float64 // their sums
+	pos  []int32   // pos[c] = 1 + index of c in ids, 0 if absent; nil until needed
+	long bool      // pos is in use for the current list
+}
+
+const commSumsShort = 16
+
+// add adds w to the sum of community c (one of n).
+func (s *commSums) add(c int32, w float64, n int) {
+	if !s.long {
+		for k, d := range s.ids {
+			if d == c {
+				s.sums[k] += w
+				return
+			}
+		}
+		if len(s.ids) < commSumsShort {
+			s.ids = append(s.ids, c)
+			s.sums = append(s.sums, w)
+			return
+		}
+		if s.pos == nil {
+			s.pos = make([]int32, n)
+		}
+		for k, d := range s.ids {
+			s.pos[d] = int32(k + 1)
+		}
+		s.long = true
+	}
+	if k := s.pos[c]; k > 0 {
+		s.sums[k-1] += w
+		return
+	}
+	s.ids = append(s.ids, c)
+	s.sums = append(s.sums, w)
+	s.pos[c] = int32(len(s.ids))
+}
+
+// get returns the sum of community c (0 if it has none).
+func (s *commSums) get(c int32) float64 {
+	if s.long {
+		if k := s.pos[c]; k > 0 {
+			return s.sums[k-1]
+		}
+		return 0
+	}
+	for k, d := range s.ids {
+		if d == c {
+			return s.sums[k]
+		}
+	}
+	return 0
+}
+
+// reset empties the list.
+func (s *commSums) reset() {
+	if s.long {
+		for _, d := range s.ids {
+			s.pos[d] = 0
+		}
+		s.long = false
+	}
+	s.ids, s.sums = s.ids[:0], s.sums[:0]
 }
 
 // renumber relabels comm in place to 0..C−1 by first appearance and returns
@@ -261,58 +368,86 @@ func renumber(comm []int32) int {
 
 // aggregate returns the graph whose nodes are the nc communities of comm:
 // the weight between two communities is the total weight between them, and
-// a community's self-loop holds its internal weight.
-func (g *wgraph) aggregate(comm []int32, nc int) *wgraph {
+// a community's self-loop holds its internal weight. The neighbour lists are
+// counted first and then written into arrays of the exact size (growing
+// them by appending would hold up to three times their size at once).
+func (g *wgraph[W]) aggregate(comm []int32, nc int) *wgraph[W] {
 	n := g.n()
-	// Nodes grouped by community (counting sort).
-	start := make([]int32, nc+1)
-	for _, c := range comm {
-		start[c+1]++
-	}
-	for c := 0; c < nc; c++ {
-		start[c+1] += start[c]
-	}
+	// Nodes grouped by community, ascending within each (a counting sort
+	// filled from the back); the groups follow each other in community
+	// order, so the group boundaries need no array of their own.
 	members := make([]int32, n)
-	fill := make([]int32, nc)
-	for i, c := range comm {
-		members[start[c]+fill[c]] = int32(i)
-		fill[c]++
+	{
+		end := make([]int32, nc)
+		for _, c := range comm {
+			end[c]++
+		}
+		for c := 1; c < nc; c++ {
+			end[c] += end[c-1]
+		}
+		for i := n - 1; i >= 0; i-- {
+			c := comm[i]
+			end[c]--
+			members[end[c]] = int32(i)
+		}
 	}
-	out := &wgraph{off: make([]int64, nc+1), loop: make([]float64, nc), k: make([]float64, nc), m2: g.m2}
-	acc := make([]float64, nc)
-	seen := make([]bool, nc)
-	touched := make([]int32, 0, 64)
-	for c := 0; c < nc; c++ {
-		touched = touched[:0]
-		var internal float64
-		for _, u := range members[start[c]:start[c+1]] {
-			out.loop[c] += g.loop[u]
-			out.k[c] += g.k[u]
+	// group returns the members of the community starting at members[k]
+	// and the index past them.
+	group := func(k int) ([]int32, int) {
+		c := comm[members[k]]
+		e := k + 1
+		for e < n && comm[members[e]] == c {
+			e++
+		}
+		return members[k:e], e
+	}
+	out := &wgraph[W]{off: make([]int64, nc+1), loop: make([]W, nc), k: make([]W, nc), m2: g.m2, nodes: nc}
+	var to commSums
+	// Pass 1: the number of neighbouring communities of each community.
+	for c, k := 0, 0; c < nc; c++ {
+		var grp []int32
+		grp, k = group(k)
+		for _, u := range grp {
+			for e := g.off[u]; e < g.off[u+1]; e++ {
+				if d := comm[g.nbr[e]]; int(d) != c {
+					to.add(d, 0, nc)
+				}
+			}
+		}
+		out.off[c+1] = out.off[c] + int64(len(to.ids))
+		to.reset()
+	}
+	out.nbr = make([]int32, out.off[nc])
+	out.w = make([]W, out.off[nc])
+	// Pass 2: the weights, summed in the order the edges are met.
+	for c, k := 0, 0; c < nc; c++ {
+		var grp []int32
+		grp, k = group(k)
+		var internal, loop, str float64
+		for _, u := range grp {
+			if g.loop != nil {
+				loop += float64(g.loop[u])
+			}
+			str += g.strength(int(u))
 			for e := g.off[u]; e < g.off[u+1]; e++ {
 				d := comm[g.nbr[e]]
-				w := 1.0
-				if g.w != nil {
-					w = g.w[e]
-				}
+				w := g.weightAt(e)
 				if int(d) == c {
 					internal += w
 					continue
 				}
-				if !seen[d] {
-					seen[d] = true
-					touched = append(touched, d)
-				}
-				acc[d] += w
+				to.add(d, w, nc)
 			}
 		}
-		out.loop[c] += internal / 2 // each internal edge was seen from both ends
-		for _, d := range touched {
-			out.nbr = append(out.nbr, d)
-			out.w = append(out.w, acc[d])
-			acc[d] = 0
-			seen[d] = false
+		out.loop[c] = W(loop + internal/2) // each internal edge was seen from both ends
+		out.k[c] = W(str)
+		p := out.off[c]
+		for j, d := range to.ids {
+			out.nbr[p] = d
+			out.w[p] = W(to.sums[j])
+			p++
 		}
-		out.off[c+1] = int64(len(out.nbr))
+		to.reset()
 	}
 	return out
 }

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"sync"
 
 	"github.com/tracesift/tracesift/internal/jsonsafe"
 )
@@ -30,6 +31,11 @@ type MeasureOptions struct {
 	// seed ⇒ identical Metrics.
 	Seed uint64
 }
+
+// measureConcurrentNodes is the largest graph on which Measure runs its
+// costliest metrics concurrently: their scratch then stays below ~15 MB.
+// A variable only so that tests can force either way.
+var measureConcurrentNodes = 1 << 18
 
 // Metrics holds every metric of a visibility graph: the headline numbers at
 // the top (NaN, written as JSON null, when undefined or not computed) and the
@@ -91,6 +97,35 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 	warn := func(what string, err error) {
 		m.Warnings = append(m.Warnings, fmt.Sprintf("%s: %v", what, err))
 	}
+	// Louvain and the BFS metrics, the two costliest, run beside the
+	// others on graphs small enough that their scratch arrays held at once
+	// do not matter; larger graphs measure one metric at a time, so that
+	// the peak memory stays near the graph's own. The results are the same
+	// either way.
+	var (
+		part            Partition
+		partErr         error
+		ps              PathStats
+		ds              DimensionStats
+		pathErr         error
+		wg              sync.WaitGroup
+		louvain, bfsRun func()
+	)
+	if !opts.NoCommunities {
+		louvain = func() { part, partErr = Louvain(g, LouvainOptions{Resolution: opts.Resolution}) }
+	}
+	if !opts.NoPaths {
+		bfsRun = func() {
+			rng := rand.New(rand.NewPCG(opts.Seed, 0x50617468)) // BFS-source stream
+			ps, ds, pathErr = pathsAndDimension(g, PathOptions{ExactMax: opts.ExactMax, Sources: opts.Sources, Rand: rng}, true, true)
+		}
+	}
+	concurrent := g.Len() <= measureConcurrentNodes
+	for _, f := range []func(){louvain, bfsRun} {
+		if f != nil && concurrent {
+			wg.Go(f)
+		}
+	}
 	m.Degree = Degrees(g)
 	m.MeanDegree = m.Degree.Mean
 	hist := degreeHistogram(g)
@@ -107,27 +142,31 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 		m.PowerLaw = &p
 		m.Gamma = p.Gamma
 	}
-	_, m.Clustering = Clustering(g)
+	m.Clustering = clusteringStats(g, nil)
 	m.ClusteringMean = m.Clustering.Mean
 	if r, err := Assortativity(g); err != nil {
 		warn("assortativity", err)
 	} else {
 		m.Assortativity = r
 	}
-	if !opts.NoCommunities {
-		p, err := Louvain(g, LouvainOptions{Resolution: opts.Resolution})
-		if err != nil {
-			warn("modularity", err)
-		} else {
-			m.Partition = &p
-			m.Modularity = p.Modularity
-			m.Communities = p.Communities
+	ir, irErr := Irreversibility(g)
+	for _, f := range []func(){louvain, bfsRun} {
+		if f != nil && !concurrent {
+			f()
 		}
 	}
-	if !opts.NoPaths {
-		rng := rand.New(rand.NewPCG(opts.Seed, 0x50617468)) // BFS-source stream
-		ps, ds, err := pathsAndDimension(g, PathOptions{ExactMax: opts.ExactMax, Sources: opts.Sources, Rand: rng}, true, true)
-		if err != nil && !errors.Is(err, ErrTooFewPoints) {
+	wg.Wait()
+	if louvain != nil {
+		if partErr != nil {
+			warn("modularity", partErr)
+		} else {
+			m.Partition = &part
+			m.Modularity = part.Modularity
+			m.Communities = part.Communities
+		}
+	}
+	if bfsRun != nil {
+		if err := pathErr; err != nil && !errors.Is(err, ErrTooFewPoints) {
 			warn("paths", err)
 		} else if err != nil {
 			warn("local dimension", err)
@@ -142,8 +181,8 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 			m.LocalDimension = ds.Mean
 		}
 	}
-	if ir, err := Irreversibility(g); err != nil {
-		warn("irreversibility", err)
+	if irErr != nil {
+		warn("irreversibility", irErr)
 	} else {
 		m.Irreversibility = ir
 		m.IrreversibilityKLD = ir.KLD

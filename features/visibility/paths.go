@@ -3,6 +3,7 @@ package visibility
 import (
 	"fmt"
 	"math"
+	"math/bits"
 	"math/rand/v2"
 	"runtime"
 	"slices"
@@ -137,34 +138,67 @@ func pickSources(n int, opts PathOptions) ([]int32, bool) {
 	return src, false
 }
 
-// levelCounts runs a BFS from src and returns cnt[r] = nodes at distance r.
-// dist and queue are scratch buffers of length n; dist must be all −1 on
-// entry and is restored on return.
-func levelCounts(g *Graph, src int32, dist, queue []int32) []int64 {
-	cnt := make([]int64, 1, 32)
-	dist[src] = 0
-	queue[0] = src
-	head, tail := 0, 1
-	cnt[0] = 1
-	for head < tail {
-		u := queue[head]
-		head++
-		du := dist[u] + 1
-		for _, v := range g.adj[g.offsets[u]:g.offsets[u+1]] {
-			if dist[v] < 0 {
-				dist[v] = du
-				queue[tail] = v
-				tail++
-				if int(du) >= len(cnt) {
-					cnt = append(cnt, 0)
+// bfsBatch is the number of sources multiBFS searches from at once (the
+// bits of a word).
+const bfsBatch = 64
+
+// multiBFS runs breadth-first searches from up to 64 sources at once and
+// returns cnt[s][r], the number of nodes at distance r from src[s]: the
+// same counts as one search per source, exact. Bit s of a node's words
+// stands for source s: seen holds the sources that have reached the node,
+// visit those whose frontier it is in at the current level, next those
+// reaching it at the next. One sweep over the frontier serves every
+// source that has the node at that distance, so the edges of a node are
+// scanned once per distinct distance at which sources reach it rather than
+// once per source ("multi-source BFS", Then et al., PVLDB 8(4) (2014) 449).
+// seen, visit and next are scratch of length n, zero on entry and on
+// return.
+func multiBFS(g *Graph, src []int32, seen, visit, next []uint64) [][]int64 {
+	off, adj := g.offsets, g.adj
+	cnt := make([][]int64, len(src))
+	lo, hi := int32(math.MaxInt32), int32(-1) // span of the frontier
+	for s, v := range src {
+		seen[v] |= 1 << s
+		visit[v] |= 1 << s
+		cnt[s] = append(make([]int64, 0, 32), 1)
+		lo, hi = min(lo, v), max(hi, v)
+	}
+	for r := 1; hi >= 0; r++ {
+		nlo, nhi := int32(math.MaxInt32), int32(-1)
+		for v := lo; v <= hi; v++ {
+			f := visit[v]
+			if f == 0 {
+				continue
+			}
+			visit[v] = 0
+			for _, w := range adj[off[v]:off[v+1]] {
+				if d := f &^ seen[w]; d != 0 {
+					next[w] |= d
+					nlo, nhi = min(nlo, w), max(nhi, w)
 				}
-				cnt[du]++
 			}
 		}
+		// A source's distances are contiguous (nothing at r + 1 without
+		// something at r), so its counts grow by at most one level here.
+		for w := nlo; w <= nhi; w++ {
+			d := next[w]
+			if d == 0 {
+				continue
+			}
+			next[w] = 0
+			seen[w] |= d
+			visit[w] = d
+			for ; d != 0; d &= d - 1 {
+				s := bits.TrailingZeros64(d)
+				if len(cnt[s]) == r {
+					cnt[s] = append(cnt[s], 0)
+				}
+				cnt[s][r]++
+			}
+		}
+		lo, hi = nlo, nhi
 	}
-	for _, v := range queue[:tail] {
-		dist[v] = -1
-	}
+	clear(seen)
 	return cnt
 }
 
@@ -179,19 +213,22 @@ func pathsAndDimension(g *Graph, opts PathOptions, wantPaths, wantDim bool) (Pat
 	}
 	src, exact := pickSources(n, opts)
 	counts := make([][]int64, len(src))
-	workers := min(runtime.GOMAXPROCS(0), len(src))
+	// Batches of 64 sources searched at once (multiBFS), the batches in
+	// parallel; each worker holds three words per node.
+	batches := (len(src) + bfsBatch - 1) / bfsBatch
+	workers := min(runtime.GOMAXPROCS(0), batches)
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func(w int) {
 			defer wg.Done()
-			dist := make([]int32, n)
-			for i := range dist {
-				dist[i] = -1
-			}
-			queue := make([]int32, n)
-			for s := w; s < len(src); s += workers {
-				counts[s] = levelCounts(g, src[s], dist, queue)
+			seen := make([]uint64, n)
+			visit := make([]uint64, n)
+			next := make([]uint64, n)
+			for b := w; b < batches; b += workers {
+				lo := b * bfsBatch
+				hi := min(lo+bfsBatch, len(src))
+				copy(counts[lo:hi], multiBFS(g, src[lo:hi], seen, visit, next))
 			}
 		}(w)
 	}

@@ -14,7 +14,7 @@ import (
 )
 
 // Write generates the whole data set into dir: every trace file at its
-// Spec.Path, LabelsFile and ReadmeFile. Directories are created as needed;
+// Spec.Path, LabelsFile, CampaignFile and ReadmeFile. Directories are created as needed;
 // each file is written to a temporary file and renamed into place
 // (internal/atomicfile), so an interrupted run never leaves a half-written
 // file. Output is byte-for-byte deterministic for a given toolchain and
@@ -34,7 +34,7 @@ func Write(dir string) error {
 }
 
 // build returns the relative names and contents of every file Write
-// creates, in campaign order, then LabelsFile and ReadmeFile.
+// creates, in campaign order, then LabelsFile, CampaignFile and ReadmeFile.
 func build() ([]string, [][]byte, error) {
 	specs := Campaign()
 	names := make([]string, 0, len(specs)+2)
@@ -54,8 +54,8 @@ func build() ([]string, [][]byte, error) {
 	if err != nil {
 		return nil, nil, err
 	}
-	names = append(names, LabelsFile, ReadmeFile)
-	data = append(data, Labels(specs), readme)
+	names = append(names, LabelsFile, CampaignFile, ReadmeFile)
+	data = append(data, Labels(specs), CampaignTable(specs), readme)
 	return names, data, nil
 }
 
