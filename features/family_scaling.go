@@ -2,6 +2,7 @@ package features
 
 import (
 	"errors"
+	"fmt"
 	"math"
 
 	"github.com/tracesift/tracesift/features/scaling"
@@ -50,8 +51,23 @@ func computeScaling(z []float64, _ Options, s *sink) {
 		s.set("hurst_rs", r.H)
 		return nil
 	}, "hurst_rs")
+	// One Welch spectrum serves the spectral slope and shape.
+	var spec scaling.Spectrum
+	var specErr error
+	specDone := false
+	spectrum := func() (scaling.Spectrum, error) {
+		if !specDone {
+			spec, specErr = scaling.Welch(z, scaling.WelchOptions{})
+			specDone = true
+		}
+		return spec, specErr
+	}
 	s.measure(func() error {
-		r, err := scaling.SpectralSlope(z, scaling.SlopeOptions{})
+		sp, err := spectrum()
+		if err != nil {
+			return fmt.Errorf("spectral slope: %w", err)
+		}
+		r, err := scaling.SpectrumSlope(sp, scaling.SlopeOptions{})
 		if err != nil {
 			return err
 		}
@@ -60,7 +76,7 @@ func computeScaling(z []float64, _ Options, s *sink) {
 		return nil
 	}, "spectral_beta", "spectral_r2")
 	s.measure(func() error {
-		sp, err := scaling.Welch(z, scaling.WelchOptions{})
+		sp, err := spectrum()
 		if err != nil {
 			return err
 		}

@@ -100,7 +100,7 @@ degree and path length of a random walk's NVG) describe graphs of N nodes.`,
 // costs little; the default pacing (100) lets the heap grow to twice what
 // is live before collecting, which on a 10^7-sample HVG was the difference
 // between 0.51 and 0.8–1.1 GB at the peak (measured).
-const graphGCPercent = 10
+const graphGCPercent = 5
 
 // memory states the peak memory of a graph with the given number of edges.
 func memory(edges int64) string {

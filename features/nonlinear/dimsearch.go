@@ -46,6 +46,11 @@ type dimSearch struct {
 	rec    *Reconstruction
 	proj   *projection
 	shared *kdTree // search tree of every dimension (Reconstruction.searchTree)
+	// carried from one dimension to the next (dimensions are searched in
+	// increasing order, and neither the projection's pruning nor the ties
+	// get better with the dimension): the projection was given up, ties
+	// were common.
+	noProj, noFast bool
 }
 
 // newDimSearch resolves MaxDim, MaxRef and MaxPoints (≤ 0: the defaults),
@@ -97,7 +102,7 @@ func (s *dimSearch) neighbours(d int, euclid bool, visit func(dist, extra float6
 		s.proj = s.rec.projectionOf(z, s.maxDim+2, delay)
 	}
 	q := s.q[:d]
-	plan := searchPlan{n: m, noProj: euclid, noFast: euclid}
+	plan := searchPlan{n: m, noProj: euclid || s.noProj, noFast: euclid || s.noFast}
 	for _, i := range s.refs {
 		var j int
 		var dist float64
@@ -108,7 +113,7 @@ func (s *dimSearch) neighbours(d int, euclid bool, visit func(dist, extra float6
 		switch proj, fast := plan.next(); {
 		case proj:
 			var c int
-			j, dist, tie, c = s.proj.nearestMax(i, d, m, s.w)
+			j, dist, tie, c = s.proj.nearestMax(i, d, m, s.w, plan.limit())
 			plan.record(c, tie)
 		case fast:
 			if s.shared == nil {
@@ -127,5 +132,14 @@ func (s *dimSearch) neighbours(d int, euclid bool, visit func(dist, extra float6
 			continue
 		}
 		visit(dist, math.Abs(z[i+d*delay]-z[j+d*delay]))
+	}
+	if !euclid {
+		s.noProj, s.noFast = plan.noProj, plan.noFast
+	}
+	if plan.noProj && !euclid && s.rec != nil {
+		if s.rec.noProj == nil {
+			s.rec.noProj = map[int]bool{}
+		}
+		s.rec.noProj[d] = true
 	}
 }

@@ -16,8 +16,15 @@
 // symmetric in the sign of x are also unchanged for a < 0 (the asymmetry
 // statistic flips sign, its magnitude does not).
 //
-// Neighbour searches use a k-d tree (kdtree.go) with exact bounding boxes;
-// long series are handled by documented, deterministic subsampling of
+// Neighbour searches use a k-d tree (kdtree.go) with exact bounding boxes,
+// or, where it is cheaper, a search by sorted projection (projection.go)
+// or one search tree shared by every dimension of Cao's method; whichever
+// answers, the result is the k-d tree's, ties included (a search that finds
+// several neighbours at exactly the nearest distance hands the query to
+// the tree). Reconstruct prepares a series once — standardised samples,
+// embedding, these structures — for Lyapunov, CorrelationDimension and
+// Prediction on it, with exactly the results of the package functions.
+// Long series are handled by documented, deterministic subsampling of
 // reference points (evenly spaced), never by a random draw, except for the
 // 0–1 test, whose frequencies c come from a seeded generator. Nothing runs
 // in parallel; the same input gives bit-identical output.
@@ -32,7 +39,8 @@
 //	CorrelationDimension  10^7 distances (references × partners)
 //	ZeroOne               first 10000 samples, 100 frequencies c
 //	Prediction            1000 test vectors, library ≤ 50000 vectors
-//	SampleEntropy         exact, all templates (dual-tree pair count)
+//	SampleEntropy         exact, all templates (dual-tree pair count; a
+//	                      sweep with a Fenwick tree for m = 2 templates)
 //	Asymmetry             one pass
 //
 // Values that can be missing, and why: Lyapunov.Lambda is NaN when the

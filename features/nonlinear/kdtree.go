@@ -26,7 +26,7 @@ type kdTree struct {
 	sorted []float64
 	// splitDim[n] and splitVal[n] are the split coordinate and value of
 	// internal node n (left: ≤ splitVal, right: ≥ splitVal); recorded by
-	// newDelayTree for the order-free searches (nearestTie, kNearestTie).
+	// newDelayTree for the order-free search (nearestTie).
 	splitDim []int8
 	splitVal []float64
 }
@@ -36,49 +36,20 @@ type kdNode struct {
 	left, right int32 // children; left < 0 marks a leaf
 }
 
-// newKDTree builds a tree over the first count points of pts (row-major,
-// dimension dim). count must be ≥ 1.
+// newDelayTree builds a tree over the first count delay vectors of z,
+// y_k = (z_k, z_{k+delay}, …, z_{k+(dim−1)·delay}), with leaves of at most
+// leaf points. The split coordinate of a node is the widest side of its
+// outer box (the parent's box cut at the split value), the split is at
+// the median (Hoare's selection, median-of-three pivot), and the tight
+// boxes used for pruning are computed bottom-up (leaves scan their points,
+// parents take the union). The points are then copied in tree order, so
+// every pass over a node's points is sequential in memory.
 //
-// The points are copied and reordered in place (rows swapped), so every
-// pass over a node's points is sequential in memory. The split dimension is
-// the widest side of the node's outer box (the parent's box cut at the split
-// value), the split is at the median; the tight boxes used for pruning are
-// computed bottom-up (leaves scan their points, parents take the union).
-func newKDTree(pts []float64, dim, count int) *kdTree {
-	return newKDTreeLeaf(pts, dim, count, kdLeafSize)
-}
-
-// newKDTreeLeaf is newKDTree with a chosen largest leaf size.
-func newKDTreeLeaf(pts []float64, dim, count, leaf int) *kdTree {
-	t := &kdTree{dim: dim, leaf: max(1, leaf)}
-	t.data = make([]float64, count*dim)
-	copy(t.data, pts[:count*dim])
-	t.ids = make([]int32, count)
-	for i := range t.ids {
-		t.ids[i] = int32(i)
-	}
-	t.nodes = make([]kdNode, 0, 4*count/t.leaf+2)
-	t.box = make([]float64, 0, cap(t.nodes)*2*dim)
-	outer := make([]float64, 2*dim)
-	lo, hi := outer[:dim], outer[dim:]
-	copy(lo, t.data[:dim])
-	copy(hi, t.data[:dim])
-	for i := 1; i < count; i++ {
-		for c, v := range t.data[i*dim : (i+1)*dim] {
-			lo[c] = min(lo[c], v)
-			hi[c] = max(hi[c], v)
-		}
-	}
-	t.build(0, count, outer)
-	return t
-}
-
-// newDelayTree builds the tree that newKDTreeLeaf would build over the
-// first count delay vectors of z, y_k = (z_k, z_{k+delay}, …,
-// z_{k+(dim−1)·delay}) — the same nodes, boxes and point order, so every
-// query answers identically, ties included — without materialising the
-// vectors first: the median selections run on point indices with one
-// coordinate column gathered from z, instead of swapping whole rows.
+// The selections run on point indices with one coordinate column gathered
+// from z, instead of swapping whole rows of materialised vectors; the
+// comparisons and swaps are those of the row-by-row builder the estimators
+// used before (kept in the tests), so the tree — nodes, boxes, point order
+// — is the same and every query answers identically, ties included.
 // z must hold count + (dim−1)·delay samples; count ≥ 1.
 func newDelayTree(z []float64, dim, delay, count, leaf int) *kdTree {
 	t := &kdTree{dim: dim, leaf: max(1, leaf)}
@@ -125,7 +96,8 @@ func (b *delayBuilder) coord(k, c int) float64 {
 	return b.z[int(b.t.ids[k])+c*b.delay]
 }
 
-// build mirrors kdTree.build step for step.
+// build creates the node for points [start, end) inside the outer box
+// (lo then hi; modified and restored) and returns its number.
 func (b *delayBuilder) build(start, end int, outer []float64) int32 {
 	t := b.t
 	d := t.dim
@@ -184,9 +156,9 @@ func (b *delayBuilder) build(start, end int, outer []float64) int32 {
 	return me
 }
 
-// selectNthKeyed is kdTree.selectNth on a key column with the point
-// indices alongside: the same comparisons and the same swaps, so the
-// indices end in the same order.
+// selectNthKeyed reorders key (with the point indices alongside) so that
+// key[k] holds the k-th smallest, smaller-or-equal ones before it and
+// greater-or-equal ones after (Hoare's selection, median-of-three pivot).
 func selectNthKeyed(key []float64, ids []int32, k int) {
 	lo, hi := 0, len(key)-1
 	for lo < hi {
@@ -226,127 +198,26 @@ func selectNthKeyed(key []float64, ids []int32, k int) {
 	}
 }
 
-// build creates the node for points [start, end) inside the outer box
-// (lo then hi; modified and restored) and returns its number.
-func (t *kdTree) build(start, end int, outer []float64) int32 {
-	d := t.dim
-	me := int32(len(t.nodes))
-	t.nodes = append(t.nodes, kdNode{start: int32(start), end: int32(end), left: -1, right: -1})
-	off := len(t.box)
-	for k := 0; k < 2*d; k++ {
-		t.box = append(t.box, 0)
-	}
-	split, spread := 0, -1.0
-	for c := 0; c < d; c++ {
-		if s := outer[d+c] - outer[c]; s > spread {
-			split, spread = c, s
-		}
-	}
-	if end-start > t.leaf && spread > 0 {
-		mid := (start + end) / 2
-		t.selectNth(start, end, split, mid)
-		sv := t.data[mid*d+split]
-		keep := outer[d+split]
-		outer[d+split] = sv
-		l := t.build(start, mid, outer)
-		outer[d+split] = keep
-		keep = outer[split]
-		outer[split] = sv
-		r := t.build(mid, end, outer)
-		outer[split] = keep
-		t.nodes[me].left, t.nodes[me].right = l, r
-		lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
-		lb, rb := int(l)*2*d, int(r)*2*d
-		for c := 0; c < d; c++ {
-			lo[c] = min(t.box[lb+c], t.box[rb+c])
-			hi[c] = max(t.box[lb+d+c], t.box[rb+d+c])
-		}
-		return me
-	}
-	// Leaf (or a node of identical points): scan its points.
-	lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
-	copy(lo, t.data[start*d:start*d+d])
-	copy(hi, t.data[start*d:start*d+d])
-	for i := start + 1; i < end; i++ {
-		for c, v := range t.data[i*d : (i+1)*d] {
-			lo[c] = min(lo[c], v)
-			hi[c] = max(hi[c], v)
-		}
-	}
-	return me
-}
-
-// swapRows exchanges points i and j (coordinates and ids).
-func (t *kdTree) swapRows(i, j int) {
-	d := t.dim
-	a, b := t.data[i*d:(i+1)*d], t.data[j*d:(j+1)*d]
-	for c := range a {
-		a[c], b[c] = b[c], a[c]
-	}
-	t.ids[i], t.ids[j] = t.ids[j], t.ids[i]
-}
-
-// selectNth reorders points [start, end) so that point k holds the k-th
-// smallest coordinate c, smaller-or-equal ones before it and
-// greater-or-equal ones after (Hoare's selection, median-of-three pivot).
-func (t *kdTree) selectNth(start, end, c, k int) {
-	d, data := t.dim, t.data
-	lo, hi := start, end-1
-	for lo < hi {
-		m := lo + (hi-lo)/2
-		a, b, e := data[lo*d+c], data[m*d+c], data[hi*d+c]
-		pivot := b
-		if (a <= b) == (b <= e) {
-			pivot = b
-		} else if (b <= a) == (a <= e) {
-			pivot = a
-		} else {
-			pivot = e
-		}
-		i, j := lo, hi
-		for i <= j {
-			for data[i*d+c] < pivot {
-				i++
-			}
-			for data[j*d+c] > pivot {
-				j--
-			}
-			if i <= j {
-				t.swapRows(i, j)
-				i++
-				j--
-			}
-		}
-		switch {
-		case k <= j:
-			hi = j
-		case k >= i:
-			lo = i
-		default:
-			return
-		}
-	}
-}
-
 // boxLower returns a lower bound of the distance from q to any point of node
 // n: the maximum-norm distance, or the squared Euclidean distance.
+//
+// Per coordinate the gap is max(lo − v, v − hi, 0): the distance to the
+// nearer face when v is outside, +0 inside (lo − v is +0 or negative
+// there, and max takes +0 over −0), computed without branches.
 func (t *kdTree) boxLower(n int32, q []float64, euclid bool) float64 {
 	d := t.dim
 	off := int(n) * 2 * d
-	lo, hi := t.box[off:off+d], t.box[off+d:off+2*d]
+	lo, hi := t.box[off:off+len(q)], t.box[off+d:off+d+len(q)]
 	var s float64
-	for k, v := range q {
-		var g float64
-		if v < lo[k] {
-			g = lo[k] - v
-		} else if v > hi[k] {
-			g = v - hi[k]
-		}
-		if euclid {
+	if euclid {
+		for k, v := range q {
+			g := max(lo[k]-v, v-hi[k], 0)
 			s += g * g
-		} else if g > s {
-			s = g
 		}
+		return s
+	}
+	for k, v := range q {
+		s = max(s, lo[k]-v, v-hi[k])
 	}
 	return s
 }
@@ -736,6 +607,7 @@ type tieSearch struct {
 	best   int
 	bd     float64
 	tie    bool
+	off    []float64 // per coordinate: a lower bound of |p_c − q_c| in the current cell
 }
 
 // nearestTie is nearest restricted to points j < m, comparing only the
@@ -743,19 +615,29 @@ type tieSearch struct {
 // exactly the nearest distance (tie). Unlike nearest, its answer does not
 // depend on the traversal order — the least distance and whether it is
 // shared are properties of the point set — so any tree over a superset of
-// the points serves, however it was built.
+// the points serves, however it was built, and the traversal is free to be
+// cheap: the child on q's side of the split first, the other pruned by the
+// incremental distance to its cell (the split planes crossed; Arya &
+// Mount, SODA 1993 (memory)), and a leaf scanned only when its tight box
+// is within the best distance.
 func (t *kdTree) nearestTie(q []float64, qi, w, m int, euclid bool) (int, float64, bool) {
-	s := tieSearch{q: q, qi: qi, w: w, m: m, euclid: euclid, best: -1, bd: math.Inf(1)}
-	t.nnTie(0, &s)
+	s := tieSearch{q: q, qi: qi, w: w, m: m, euclid: euclid, best: -1, bd: math.Inf(1), off: make([]float64, len(q))}
+	t.nnTie(0, &s, 0)
 	if euclid {
 		return s.best, math.Sqrt(s.bd), s.tie
 	}
 	return s.best, s.bd, s.tie
 }
 
-func (t *kdTree) nnTie(n int32, s *tieSearch) {
+func (t *kdTree) nnTie(n int32, s *tieSearch, rd float64) {
+	if rd > s.bd {
+		return
+	}
 	node := &t.nodes[n]
 	if node.left < 0 {
+		if t.boxLower(n, s.q, s.euclid) > s.bd {
+			return
+		}
 		D := t.dim
 		for k := int(node.start); k < int(node.end); k++ {
 			id := int(t.ids[k])
@@ -791,75 +673,50 @@ func (t *kdTree) nnTie(n int32, s *tieSearch) {
 		}
 		return
 	}
-	first, second := t.children(n, s.q)
-	if t.boxLower(first, s.q, s.euclid) <= s.bd {
-		t.nnTie(first, s)
-	}
-	if t.boxLower(second, s.q, s.euclid) <= s.bd {
-		t.nnTie(second, s)
-	}
-}
-
-// children returns the children of internal node n, the one on q's side of
-// the split first (the left one when the split coordinate is not among
-// q's). The order-free searches visit that one first and test the other's
-// box only afterwards, against the tightened bound.
-func (t *kdTree) children(n int32, q []float64) (first, second int32) {
-	node := &t.nodes[n]
-	if c := int(t.splitDim[n]); c < len(q) && q[c] >= t.splitVal[n] {
-		return node.right, node.left
-	}
-	return node.left, node.right
-}
-
-// kNearestTie fills ids and dists (length k, ascending Euclidean distance
-// over the first len(q) coordinates) with the k points j in [from, to)
-// nearest to q, zero distances included, and reports a tie when the k + 1
-// nearest distances are not all different (see kNearestEuclid of
-// projection, whose contract it shares). top and topD are scratch of
-// length k + 1; the range must hold more than k points of the tree.
-func (t *kdTree) kNearestTie(q []float64, from, to int, ids []int, dists []float64, top []int, topD []float64) bool {
-	s := knnScan{q: q, from: from, to: to, top: top, topD: topD, bound: math.Inf(1)}
-	t.knnTie(0, &s)
-	tie := false
-	for a := 0; a+1 < s.found; a++ {
-		if topD[a] == topD[a+1] {
-			tie = true
-		}
-	}
-	for a := range ids {
-		ids[a], dists[a] = top[a], math.Sqrt(topD[a])
-	}
-	return tie
-}
-
-func (t *kdTree) knnTie(n int32, s *knnScan) {
-	node := &t.nodes[n]
-	if node.left < 0 {
-		D := t.dim
-		for k := int(node.start); k < int(node.end); k++ {
-			j := int(t.ids[k])
-			if j < s.from || j >= s.to {
-				continue
-			}
-			p := t.data[k*D : k*D+len(s.q)]
-			var dist float64
-			for c, v := range s.q {
-				g := p[c] - v
-				dist += g * g
-				if dist > s.bound {
-					break
-				}
-			}
-			s.insert(j, dist)
-		}
+	near, far, c, g := t.split(n, s.q)
+	t.nnTie(near, s, rd)
+	if c < 0 {
+		t.nnTie(far, s, rd)
 		return
 	}
-	first, second := t.children(n, s.q)
-	if t.boxLower(first, s.q, true) <= s.bound {
-		t.knnTie(first, s)
+	old := s.off[c]
+	s.off[c] = max(old, g)
+	t.nnTie(far, s, cellBound(s.off, rd, c, s.euclid))
+	s.off[c] = old
+}
+
+// split returns the children of internal node n, the one on q's side of
+// the split first, the split coordinate (−1 when it is not among q's, and
+// the order is then left, right) and the gap g = |q_c − split value|,
+// a lower bound of |p_c − q_c| for every point p of the far child: the
+// far child's points lie beyond the split value, and rounded subtraction
+// is monotone.
+func (t *kdTree) split(n int32, q []float64) (near, far int32, c int, g float64) {
+	node := &t.nodes[n]
+	c = int(t.splitDim[n])
+	if c >= len(q) {
+		return node.left, node.right, -1, 0
 	}
-	if t.boxLower(second, s.q, true) <= s.bound {
-		t.knnTie(second, s)
+	diff := q[c] - t.splitVal[n]
+	if diff >= 0 {
+		return node.right, node.left, c, diff
 	}
+	return node.left, node.right, c, -diff
+}
+
+// cellBound returns a lower bound of the distance from q to any point of a
+// cell whose per-coordinate gaps are off (coordinate c just raised; rd is
+// the bound before): the largest gap under the maximum norm, else the sum
+// of squared gaps over the coordinates in order — each term at most the
+// point's own, and floating-point addition is monotone, so the bound never
+// exceeds a distance computed coordinate by coordinate.
+func cellBound(off []float64, rd float64, c int, euclid bool) float64 {
+	if !euclid {
+		return max(rd, off[c])
+	}
+	var s float64
+	for _, g := range off {
+		s += g * g
+	}
+	return s
 }

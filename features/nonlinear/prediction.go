@@ -73,13 +73,13 @@ const predictionWho = "nonlinear: prediction"
 // series, in its embedding (opts.Embed is not read).
 //
 // The nearest library vectors are found by sorted projection while that
-// pays (searchPlan), else by the order-free search of the k-d tree over
-// the library (kNearestTie); a test vector whose d+2 nearest distances are
-// not all different (so that the set or the order of its neighbours
-// depends on how ties are broken) is settled by that tree's own search, so
-// the answers are those of that search alone (see projection). (A search
-// tree over all vectors, filtered to the library, cost twice as much:
-// measured.)
+// pays (searchPlan), else by the k-d tree over the library, which also
+// settles a test vector whose d+2 nearest distances are not all different
+// (so that the set or the order of its neighbours depends on how ties are
+// broken); the answers are those of the tree alone (see projection). (A
+// search tree over all vectors, filtered to the library, cost twice as
+// much, and the order-free k-nearest search of the library tree a quarter
+// more than its own: measured.)
 func (r *Reconstruction) Prediction(opts PredictionOptions) (*PredictionResult, error) {
 	const who = predictionWho
 	z, emb := r.z, r.emb
@@ -98,10 +98,10 @@ func (r *Reconstruction) Prediction(opts PredictionOptions) (*PredictionResult, 
 			who, n, libEnd, testN, d, tau, H, ErrTooShort)
 	}
 	libStart := max(0, libEnd-maxLib)
-	proj := r.projectionOf(z, d, tau)
-	var tree *kdTree // over the library, on first use
+	var proj *projection // on first use
+	var tree *kdTree     // over the library, on first use
 	k := d + 1
-	plan := searchPlan{n: libEnd - libStart, noProj: libEnd-libStart <= k, noFast: libEnd-libStart <= k}
+	plan := searchPlan{n: libEnd - libStart, noProj: libEnd-libStart <= k || r.projectionUseless(d), noFast: true}
 	ids := make([]int, k)
 	dists := make([]float64, k)
 	top, topD := make([]int, k+1), make([]float64, k+1)
@@ -120,23 +120,19 @@ func (r *Reconstruction) Prediction(opts PredictionOptions) (*PredictionResult, 
 		for c := range q {
 			q[c] = z[t+c*tau]
 		}
-		useProj, fast := plan.next()
-		if useProj {
+		if useProj, _ := plan.next(); useProj {
+			if proj == nil {
+				proj = r.projectionOf(z, d, tau)
+			}
 			var c int
-			tie, c = proj.kNearestEuclid(t, d, libStart, libEnd, ids, dists, top, topD)
+			tie, c = proj.kNearestEuclid(t, d, libStart, libEnd, plan.limit(), ids, dists, top, topD)
 			plan.record(c, tie)
 		}
 		if tie { // the tree answers, with indices relative to libStart
 			if tree == nil {
 				tree = newDelayTree(z[libStart:], d, tau, libEnd-libStart, kdLeafSize)
 			}
-			if fast && !useProj {
-				tie = tree.kNearestTie(q, 0, libEnd-libStart, ids, dists, top, topD)
-				plan.record(0, tie)
-			}
-			if tie {
-				got = tree.kNearest(q, ids, dists)
-			}
+			got = tree.kNearest(q, ids, dists)
 			for j := range got {
 				ids[j] += libStart
 			}

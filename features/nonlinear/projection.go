@@ -82,31 +82,36 @@ type nnScan struct {
 	bd      float64 // best distance (squared when euclid)
 	tie     bool
 	cost    int // candidates examined
+	limit   int // candidates allowed; past them the search gives up
 }
 
 // nearestMax returns the nearest neighbour of the delay vector i, in
 // dimension d ≤ dims, among the vectors j < m with |j − i| > w at a
 // distance > 0 under the maximum norm, its distance, and whether another
 // such vector lies at exactly that distance; cost counts the candidates
-// examined. j is −1 and the distance +Inf when no vector qualifies.
-func (p *projection) nearestMax(i, d, m, w int) (best int, dist float64, tie bool, cost int) {
-	s := p.scan(i, d, m, w, false)
+// examined. j is −1 and the distance +Inf when no vector qualifies. A
+// search that would examine more than limit candidates gives up and
+// reports a tie, so that the caller asks a tree.
+func (p *projection) nearestMax(i, d, m, w, limit int) (best int, dist float64, tie bool, cost int) {
+	s := p.scan(i, d, m, w, limit, false)
 	return s.best, s.bd, s.tie, s.cost
 }
 
 // nearestEuclid is nearestMax under the Euclidean norm; the distance is
 // √(Σ_c (y_{j,c} − y_{i,c})²) summed over c in order, as the k-d tree sums
 // it.
-func (p *projection) nearestEuclid(i, d, m, w int) (best int, dist float64, tie bool, cost int) {
-	s := p.scan(i, d, m, w, true)
+func (p *projection) nearestEuclid(i, d, m, w, limit int) (best int, dist float64, tie bool, cost int) {
+	s := p.scan(i, d, m, w, limit, true)
 	return s.best, math.Sqrt(s.bd), s.tie, s.cost
 }
 
-func (p *projection) scan(i, d, m, w int, euclid bool) nnScan {
+func (p *projection) scan(i, d, m, w, limit int, euclid bool) nnScan {
 	at := int(p.pos[i])
-	s := nnScan{p: p, q: p.rows[at*p.dims : at*p.dims+d], i: i, m: m, w: w, euclid: euclid, best: -1, bd: math.Inf(1)}
+	s := nnScan{p: p, q: p.rows[at*p.dims : at*p.dims+d], i: i, m: m, w: w, euclid: euclid, best: -1, bd: math.Inf(1), limit: limit}
 	s.walk(at+1, 1)
-	s.walk(at-1, -1)
+	if s.cost <= s.limit {
+		s.walk(at-1, -1)
+	}
 	return s
 }
 
@@ -122,7 +127,10 @@ func (s *nnScan) walk(pp, step int) {
 		if dist > s.bd {
 			return
 		}
-		s.cost++
+		if s.cost++; s.cost > s.limit {
+			s.tie = true // gave up: unsettled
+			return
+		}
 		j := int(p.idx[pp])
 		if j >= s.m || (j-s.i <= s.w && s.i-j <= s.w) {
 			continue
@@ -155,15 +163,22 @@ func (s *nnScan) walk(pp, step int) {
 // the Euclidean norm, in increasing order of distance, with the distances;
 // zero distances count. tie reports that the k + 1 nearest distances are
 // not all different, so that the set or the order of the k nearest
-// depends on how ties are broken; cost counts the candidates examined.
+// depends on how ties are broken; cost counts the candidates examined, and
+// a search past limit candidates gives up and reports a tie.
 // top and topD are scratch of length k + 1. The range must hold more than
 // k vectors, and t must lie outside it.
-func (p *projection) kNearestEuclid(t, d, from, to int, ids []int, dists []float64, top []int, topD []float64) (tie bool, cost int) {
-	s := knnScan{p: p, from: from, to: to, top: top, topD: topD, bound: math.Inf(1)}
+func (p *projection) kNearestEuclid(t, d, from, to, limit int, ids []int, dists []float64, top []int, topD []float64) (tie bool, cost int) {
+	s := knnScan{p: p, from: from, to: to, top: top, topD: topD, bound: math.Inf(1), limit: limit}
 	at := int(p.pos[t])
 	s.q = p.rows[at*p.dims : at*p.dims+d]
 	s.walk(at+1, 1)
+	if s.cost > limit {
+		return true, s.cost
+	}
 	s.walk(at-1, -1)
+	if s.cost > limit {
+		return true, s.cost
+	}
 	for a := 0; a+1 < s.found; a++ {
 		if topD[a] == topD[a+1] {
 			tie = true
@@ -185,6 +200,7 @@ type knnScan struct {
 	found    int
 	bound    float64 // squared distance of the (k+1)-th so far
 	cost     int
+	limit    int
 }
 
 func (s *knnScan) walk(pp, step int) {
@@ -196,7 +212,9 @@ func (s *knnScan) walk(pp, step int) {
 		if dist > s.bound {
 			return
 		}
-		s.cost++
+		if s.cost++; s.cost > s.limit {
+			return
+		}
 		j := int(p.idx[pp])
 		if j < s.from || j >= s.to {
 			continue
@@ -243,12 +261,13 @@ func (s *knnScan) insert(j int, dist float64) {
 // the space) the first coordinate prunes little, and a tree, whose boxes
 // prune in every coordinate, is cheaper once built: the projection is
 // dropped when the first 32 queries examined more than max(256, n/32)
-// candidates each on average. Exactly periodic and discrete series repeat
-// their delay vectors, so that many vectors share the nearest distance;
-// every such tie is settled by the caller's k-d tree, so once more than a
-// quarter of the queries (from the eighth on) tied, that tree answers
-// alone. The answers are
-// the same whichever search gives them.
+// candidates each on average, or at once when one query needs more than
+// 16 times that (limit; the query then gives up and a tree answers it).
+// Exactly periodic and discrete series repeat their delay vectors, so that
+// many vectors share the nearest distance; every such tie is settled by
+// the caller's k-d tree, so once more than a quarter of the queries (from
+// the eighth on) tied, that tree answers alone. The answers are the same
+// whichever search gives them.
 type searchPlan struct {
 	n                int
 	done, cost, ties int
@@ -267,9 +286,17 @@ func (p *searchPlan) next() (proj, fast bool) {
 	return !p.noProj, !p.noFast
 }
 
+// limit is the most candidates one query by projection may examine.
+func (p *searchPlan) limit() int {
+	return 16 * max(256, p.n/32)
+}
+
 // record notes a query that examined cost candidates by projection and
-// whether it tied.
+// whether it tied (or gave up).
 func (p *searchPlan) record(cost int, tie bool) {
+	if cost > p.limit() {
+		p.noProj = true
+	}
 	p.done++
 	p.cost += cost
 	if tie {

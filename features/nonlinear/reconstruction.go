@@ -5,9 +5,9 @@ import "fmt"
 // Reconstruction is a series prepared once for the estimators that work
 // in its delay-embedding space: the standardised samples, the embedding
 // chosen by Embed, and the neighbour-search structures, built on first use
-// and then shared — the sorted projection of the samples (which also
-// serves Cao's dimension search) and the delay vectors of the chosen
-// dimension. Its Lyapunov, CorrelationDimension and Prediction methods give
+// and then shared — the sorted projection of the samples and the search
+// tree of Cao's dimension search (which Lyapunov reuses when it covers the
+// series), and the delay vectors of the chosen dimension. Its Lyapunov, CorrelationDimension and Prediction methods give
 // exactly the results of the package functions called with
 // Embedding().Fixed(), without standardising, embedding and sorting the
 // series again for each of them. A Reconstruction is not safe for
@@ -17,10 +17,14 @@ type Reconstruction struct {
 	emb    *Embedding
 	maxLag int // lag range of the autocorrelation time (ACFTime)
 
-	proj    *projection // sorted projection of z, on first use
-	tree    *kdTree     // search tree over the delay vectors of z, on first use
-	tdelay  int         // its delay
-	vectors []float64   // delay vectors of emb, row-major, on first use
+	proj   *projection // sorted projection of z, on first use
+	tree   *kdTree     // search tree over the delay vectors of z, on first use
+	tdelay int         // its delay
+	// noProj[d] records that Cao's search at dimension d gave up the
+	// sorted projection (searchPlan): the estimators in that dimension
+	// then go straight to their trees.
+	noProj  map[int]bool
+	vectors []float64 // delay vectors of emb, row-major, on first use
 }
 
 // Reconstruct standardises x and chooses its embedding as Embed does (x
@@ -66,10 +70,10 @@ func (r *Reconstruction) projectionOf(z []float64, dims, delay int) *projection 
 // reconstruction's series or a prefix of it), j < len(z) − delay, with at
 // least dims coordinates at delay, coordinates past the end of z read as
 // 0: the shared one when it fits, else a new one (kept when it covers the
-// whole series). It answers nearestTie and kNearestTie for any dimension
-// up to dims — those answers do not depend on how the tree was built — and
-// a vector j only takes part in searches of dimensions it has, so the
-// padding never enters a distance.
+// whole series). It answers nearestTie for any dimension up to dims —
+// those answers do not depend on how the tree was built — and a vector j
+// only takes part in searches of dimensions it has, so the padding never
+// enters a distance.
 func (r *Reconstruction) searchTree(z []float64, dims, delay int) *kdTree {
 	whole := r != nil && len(z) == len(r.z)
 	if whole && r.tree != nil && r.tree.dim >= dims && r.tdelay == delay {
@@ -82,6 +86,12 @@ func (r *Reconstruction) searchTree(z []float64, dims, delay int) *kdTree {
 		r.tree, r.tdelay = t, delay
 	}
 	return t
+}
+
+// projectionUseless reports whether the dimension search found the sorted
+// projection not worth it in dimension d (false when unknown).
+func (r *Reconstruction) projectionUseless(d int) bool {
+	return r != nil && r.noProj[d]
 }
 
 // delayVectors returns the delay vectors of the chosen embedding (all of

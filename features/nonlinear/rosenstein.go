@@ -273,7 +273,7 @@ func meanOf(v []float64) float64 {
 // alone (see projection).
 func (r *Reconstruction) nearPairs(refs []int, L int) ([]int, float64) {
 	z, d, tau, w := r.z, r.emb.Dim, r.emb.Delay, r.emb.Theiler
-	proj := r.projectionOf(z, d, tau)
+	var proj *projection // on first use
 	// Cao's search tree serves when it covers the series.
 	shared := r.tree
 	if shared != nil && (shared.dim < d || r.tdelay != tau || len(shared.ids) < L) {
@@ -283,7 +283,7 @@ func (r *Reconstruction) nearPairs(refs []int, L int) ([]int, float64) {
 	nb := make([]int, len(refs))
 	dist := make([]float64, 0, len(refs))
 	q := make([]float64, d)
-	plan := searchPlan{n: L}
+	plan := searchPlan{n: L, noProj: r.projectionUseless(d)}
 	for k, j := range refs {
 		var r1 float64
 		tie := true
@@ -292,8 +292,11 @@ func (r *Reconstruction) nearPairs(refs []int, L int) ([]int, float64) {
 		}
 		switch useProj, fast := plan.next(); {
 		case useProj:
+			if proj == nil {
+				proj = r.projectionOf(z, d, tau)
+			}
 			var c int
-			nb[k], r1, tie, c = proj.nearestEuclid(j, d, L, w)
+			nb[k], r1, tie, c = proj.nearestEuclid(j, d, L, w, plan.limit())
 			plan.record(c, tie)
 		case fast:
 			t := shared

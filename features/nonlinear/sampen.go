@@ -74,13 +74,12 @@ func sampEnCounts(x []float64, m int, r float64) (a, b int64) {
 	if nt < 2 {
 		return 0, 0
 	}
-	long := delayVectors(x, m+1, 1, nt) // (m+1)-long templates
-	short := make([]float64, nt*m)
-	for i := 0; i < nt; i++ {
-		copy(short[i*m:(i+1)*m], long[i*(m+1):i*(m+1)+m])
+	// The templates are the delay vectors of x at delay 1.
+	tl := newDelayTree(x, m+1, 1, nt, sampEnLeaf)
+	if m == 2 {
+		return tl.pairsWithin(r), pairsWithin2(x, nt, r)
 	}
-	ts := newKDTreeLeaf(short, m, nt, sampEnLeafShort)
-	tl := newKDTreeLeaf(long, m+1, nt, sampEnLeaf)
+	ts := newDelayTree(x, m, 1, nt, sampEnLeafShort)
 	return tl.pairsWithin(r), ts.pairsWithin(r)
 }
 

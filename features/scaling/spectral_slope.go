@@ -57,16 +57,36 @@ type SlopeResult struct {
 // explicit segment length), and a band holding at least 3 bins. β is
 // invariant under x → a·x + b for any a ≠ 0.
 func SpectralSlope(x []float64, opts SlopeOptions) (SlopeResult, error) {
+	if _, err := opts.binsPerDecade(); err != nil {
+		return SlopeResult{}, err
+	}
+	sp, err := Welch(x, opts.Welch)
+	if err != nil {
+		return SlopeResult{}, fmt.Errorf("spectral slope: %w", err)
+	}
+	return SpectrumSlope(sp, opts)
+}
+
+// binsPerDecade resolves and checks BinsPerDecade.
+func (opts SlopeOptions) binsPerDecade() (int, error) {
 	bpd := opts.BinsPerDecade
 	if bpd == 0 {
 		bpd = 10
 	}
 	if bpd < 1 {
-		return SlopeResult{}, fmt.Errorf("spectral slope: %w: %d bins per decade, want ≥ 1", ErrBadOption, bpd)
+		return 0, fmt.Errorf("spectral slope: %w: %d bins per decade, want ≥ 1", ErrBadOption, bpd)
 	}
-	sp, err := Welch(x, opts.Welch)
+	return bpd, nil
+}
+
+// SpectrumSlope is SpectralSlope on a Welch spectrum already computed
+// (opts.Welch is not read), so that one spectrum serves several measures
+// of the same series; SpectralSlope(x, opts) equals
+// SpectrumSlope(Welch(x, opts.Welch), opts) exactly.
+func SpectrumSlope(sp Spectrum, opts SlopeOptions) (SlopeResult, error) {
+	bpd, err := opts.binsPerDecade()
 	if err != nil {
-		return SlopeResult{}, fmt.Errorf("spectral slope: %w", err)
+		return SlopeResult{}, err
 	}
 	l := sp.Segment
 	fmin, fmax := opts.FMin, opts.FMax

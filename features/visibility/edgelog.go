@@ -69,17 +69,12 @@ func (l *edgeLog) reader() logReader {
 	return r
 }
 
-// next returns the next distance, 0 at the end of a record.
-func (r *logReader) next() uint32 {
-	if r.pos < len(r.buf) {
-		if b := r.buf[r.pos]; b < 0x80 {
-			r.pos++
-			return uint32(b)
-		}
-	}
-	return r.nextSlow()
-}
-
+// nextSlow returns the next distance, 0 at the end of a record. The reader
+// (placeEdges) takes a one-byte distance in the current chunk itself, which
+// is nearly every one, and calls nextSlow for the rest: a wrapper holding
+// both would not fit the compiler's inlining budget, and this runs once per
+// edge end.
+//
 //go:noinline
 func (r *logReader) nextSlow() uint32 {
 	if r.pos == len(r.buf) {

@@ -32,10 +32,20 @@ type MeasureOptions struct {
 	Seed uint64
 }
 
-// measureConcurrentNodes is the largest graph on which Measure runs its
-// costliest metrics concurrently: their scratch then stays below ~15 MB.
-// A variable only so that tests can force either way.
+// measureConcurrentNodes is the largest graph on which Measure always runs
+// its costliest metrics concurrently: their scratch then stays below
+// ~15 MB. On larger graphs they run concurrently when their scratch,
+// about concurrentScratch bytes per node (Louvain's first level and the
+// 64-source BFS), is at most half the graph's own arrays. A variable only
+// so that tests can force either way.
 var measureConcurrentNodes = 1 << 18
+
+const concurrentScratch = 48
+
+// graphBytes returns the size of g's arrays.
+func graphBytes(g *Graph) int64 {
+	return int64(8*len(g.offsets) + 4*len(g.adj) + 4*len(g.lower))
+}
 
 // Metrics holds every metric of a visibility graph: the headline numbers at
 // the top (NaN, written as JSON null, when undefined or not computed) and the
@@ -98,10 +108,11 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 		m.Warnings = append(m.Warnings, fmt.Sprintf("%s: %v", what, err))
 	}
 	// Louvain and the BFS metrics, the two costliest, run beside the
-	// others on graphs small enough that their scratch arrays held at once
-	// do not matter; larger graphs measure one metric at a time, so that
-	// the peak memory stays near the graph's own. The results are the same
-	// either way.
+	// others when their scratch arrays held at once stay small: on small
+	// graphs, and on graphs whose edges outweigh their nodes (dense NVGs);
+	// sparse graphs of millions of nodes (HVGs, the NVG of noise) measure
+	// one metric at a time, so that the peak memory stays near the graph's
+	// own. The results are the same either way.
 	var (
 		part            Partition
 		partErr         error
@@ -120,7 +131,7 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 			ps, ds, pathErr = pathsAndDimension(g, PathOptions{ExactMax: opts.ExactMax, Sources: opts.Sources, Rand: rng}, true, true)
 		}
 	}
-	concurrent := g.Len() <= measureConcurrentNodes
+	concurrent := g.Len() <= measureConcurrentNodes || concurrentScratch*int64(g.Len()) <= graphBytes(g)/2
 	for _, f := range []func(){louvain, bfsRun} {
 		if f != nil && concurrent {
 			wg.Go(f)

@@ -134,7 +134,17 @@ func placeEdges(log *edgeLog, t []ctNode, root int32, offsets []int64, lower []i
 		if lc := t[m].l; lc >= 0 {
 			p := offsets[m] + int64(lower[m])
 			u := m
-			for d := rd.next(); d != 0; d = rd.next() {
+			for {
+				// The next distance (see nextSlow).
+				var d uint32
+				if q := rd.pos; q < len(rd.buf) && rd.buf[q] < 0x80 {
+					d, rd.pos = uint32(rd.buf[q]), q+1
+				} else {
+					d = rd.nextSlow()
+				}
+				if d == 0 {
+					break
+				}
 				u -= int32(d)
 				p--
 				adj[p] = u
@@ -146,7 +156,17 @@ func placeEdges(log *edgeLog, t []ctNode, root int32, offsets []int64, lower []i
 		if rc := t[m].r; rc >= 0 {
 			p := offsets[m] + int64(lower[m])
 			u := m
-			for d := rd.next(); d != 0; d = rd.next() {
+			for {
+				// The next distance (see nextSlow).
+				var d uint32
+				if q := rd.pos; q < len(rd.buf) && rd.buf[q] < 0x80 {
+					d, rd.pos = uint32(rd.buf[q]), q+1
+				} else {
+					d = rd.nextSlow()
+				}
+				if d == 0 {
+					break
+				}
 				u += int32(d)
 				adj[p] = u
 				p++
@@ -322,7 +342,20 @@ func (s *sweeper) sweep(m int, child int32, a, b int32, dir int) {
 			y := t[u].x
 			pc := float64(dir * (u - m))
 			if f := apexFilter(y, xm, dv, pv, pc); !have || f > 0 || f == 0 && exactAbove(y, yrec, xm, pv, pc) {
-				s.visible(u, dir)
+				// s.visible(u, dir), written out: neither it nor the log's
+				// put fits the compiler's inlining budget, and this is the
+				// hot path.
+				d := (u - s.last) * dir
+				s.last = u
+				if lc := s.log.cur; d < 0x80 && len(lc) < cap(lc) {
+					s.log.cur = append(lc, byte(d))
+				} else {
+					s.log.putSlow(uint32(d))
+				}
+				s.deg[u]++
+				if dir > 0 {
+					s.lower[u]++
+				}
 				have = true
 				found++
 				lastWork = work

@@ -32,9 +32,14 @@ const (
 	// BFS runs on a 2000-node graph take milliseconds.
 	DefaultExactMax = 2000
 	// DefaultSources is the number of sampled BFS sources on larger graphs.
-	// Per-source mean distances of visibility graphs vary by a few per cent,
-	// so 64 sources give the mean path length to a few tenths of a per cent
-	// (StdErr reports it); on a 10^6-node NVG each BFS takes tens of ms.
+	// Per-source mean distances vary by about 12% (standard deviation) on
+	// the NVGs of 2·10^4 samples of white noise and Brownian motion, so 64
+	// sources give the mean path length with a standard error of 1.5%
+	// (StdErr reports it); measured against all pairs there, the estimates
+	// (seed 1) were off by 0.15% and 0.34%, the diameter by 1 and 0 hops.
+	// The 64 are searched at once (multiBFS): 1.0 s on
+	// the 10^6-node NVG of Brownian motion, against 5.7 s one source at a
+	// time (one core, measured).
 	DefaultSources = 64
 )
 
@@ -64,9 +69,9 @@ func (p PathStats) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(p, js
 // breadth-first search: from every node when n ≤ ExactMax, else from Sources
 // sampled nodes (an estimate with a standard error; the diameter is then a
 // lower bound). Visibility graphs are connected (consecutive samples always
-// see each other). The searches run in parallel on a fixed split, and the
-// result does not depend on the number of threads. ErrEmpty for an empty
-// graph.
+// see each other). The sources are searched 64 at a time (multiBFS), the
+// batches in parallel, and the result does not depend on the number of
+// threads. ErrEmpty for an empty graph.
 func Paths(g *Graph, opts PathOptions) (PathStats, error) {
 	ps, _, err := pathsAndDimension(g, opts, true, false)
 	return ps, err

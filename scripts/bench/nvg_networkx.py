@@ -68,7 +68,7 @@ def nvg_edges(x):
 
 def main(argv):
     if len(argv) not in (2, 4) or (len(argv) == 4 and argv[2] != "--check"):
-        print(__doc__.strip().splitlines()[2].strip(), file=sys.stderr)
+        print("usage: nvg_networkx.py TRACE.csv [--check TRACESIFT]", file=sys.stderr)
         return 2
     path = argv[1]
     t0 = time.perf_counter()
