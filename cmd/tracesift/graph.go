@@ -60,12 +60,12 @@ an error once it passes --max-edges edges (default ` + fmt.Sprint(visibility.Def
 natural one has 3 per sample for white noise, 13 for 10^6 samples of a
 random walk, and more the longer and smoother the trace: 10^7 samples of
 Brownian motion give 1.6·10^8 edges, past the default budget (measured:
-3.7 GB with --max-edges 200000000 --no-paths). Raise the budget if the
+1.9 GB with --max-edges 200000000 --no-paths). Raise the budget if the
 memory is there, or cut the trace with --window N: one graph per window
 of at most N consecutive samples (all windows of equal length, ±1 sample,
 covering the trace), measured one after another, printing each metric's
 mean, standard deviation, minimum, median and maximum over the windows
-(measured: 10 windows of 10^6 samples of that trace, 0.7 GB). Local metrics
+(measured: 10 windows of 10^6 samples of that trace, 0.36 GB). Local metrics
 (degree distribution, λ, clustering, irreversibility) estimate the same
 quantities as the whole graph; metrics that grow with the graph (the mean
 degree and path length of a random walk's NVG) describe graphs of N nodes.`,
@@ -98,8 +98,9 @@ degree and path length of a random walk's NVG) describe graphs of N nodes.`,
 // environment variable overrides it). The samples, the graph and the
 // metrics' scratch are a few large arrays without pointers, so a collection
 // costs little; the default pacing (100) lets the heap grow to twice what
-// is live before collecting, which on a 10^7-sample HVG was the difference
-// between 0.51 and 0.8–1.1 GB at the peak (measured).
+// is live before collecting. On the HVG of 10^7 samples (--no-paths): 0.50
+// GB at the peak instead of 0.75, in the same time (measured; 10 gave
+// 0.50–0.56 GB, depending on where the collections fell).
 const graphGCPercent = 5
 
 // memory states the peak memory of a graph with the given number of edges.

@@ -470,18 +470,21 @@ func (s *sweeper) shoot(m, lo, hi, dir int, q *rayQuery) (found int) {
 func cartesianTree(x []float64) (t []ctNode, root int32) {
 	n := len(x)
 	t = make([]ctNode, n)
+	// The right spine, with its samples beside it (no load through t to
+	// compare).
 	stack := make([]int32, 0, 64)
+	top := make([]float64, 0, 64)
 	for i, xi := range x {
 		last := int32(-1)
-		for len(stack) > 0 && t[stack[len(stack)-1]].x < xi {
+		for len(top) > 0 && top[len(top)-1] < xi {
 			last = stack[len(stack)-1]
-			stack = stack[:len(stack)-1]
+			stack, top = stack[:len(stack)-1], top[:len(top)-1]
 		}
 		t[i] = ctNode{x: xi, l: last, r: -1}
 		if len(stack) > 0 {
 			t[stack[len(stack)-1]].r = int32(i)
 		}
-		stack = append(stack, int32(i))
+		stack, top = append(stack, int32(i)), append(top, xi)
 	}
 	return t, stack[0]
 }
