@@ -182,6 +182,11 @@ type Histogram struct {
 	Discrete bool      `json:"discrete"`
 	Upper    []float64 `json:"upper"` // bin b holds (Upper[b−1], Upper[b]]
 	P        []float64 `json:"p"`
+	// X and F are the pooled CDF at every support value of the
+	// comparison (the distinct values of both groups' traces), for
+	// figures finer than the bins.
+	X []float64 `json:"x"`
+	F []float64 `json:"f"`
 }
 
 // Report is the outcome of Analyze. Every slice is in a fixed order, so
@@ -206,6 +211,13 @@ type Report struct {
 	Families      []Family    `json:"families"`
 	Bands         []Band      `json:"bands"`
 	Histograms    []Histogram `json:"histograms"`
+	// Tails are the pooled degree distributions of every group at every
+	// level with their fitted tails (exponential for the HVG, power law
+	// for the NVG).
+	Tails []Tail `json:"tails"`
+	// Verdicts are the classifier's verdicts, one per classified trace in
+	// the canonical trace order (group, device, parameter, file).
+	Verdicts []TraceVerdict `json:"verdicts"`
 	// Warnings are statements a reader must not miss: families in which
 	// nothing can be significant, and what would make them reachable.
 	Warnings []string `json:"warnings"`
@@ -222,6 +234,7 @@ type traceData struct {
 	orig                     map[string]float64
 	surr                     map[string]map[string]Row // method → metric → row
 	dists                    map[[2]string]*Distribution
+	verdict                  *Verdict
 }
 
 // Analyze runs every test of the campaign on the per-trace table (rows
@@ -269,6 +282,8 @@ func Analyze(rows []Row, opts AnalyzeOptions) (Report, error) {
 	a.traceTests()
 	a.distributionTests()
 	a.bands()
+	a.tails()
+	a.verdicts()
 	a.adjust()
 	return rep, nil
 }
@@ -283,7 +298,7 @@ func rebuild(rows []Row) ([]*traceData, error) {
 	seen := map[key]bool{}
 	for _, r := range rows {
 		k := key{r.File, r.Kind, r.Condition, r.Name, r.X}
-		if r.Kind == KindMetric {
+		if r.Kind != KindDistribution {
 			k.x = 0
 		}
 		if seen[k] {
@@ -310,6 +325,8 @@ func rebuild(rows []Row) ([]*traceData, error) {
 		switch {
 		case r.Kind == KindMetric && r.Condition == Original:
 			t.orig[r.Name] = r.Value
+		case r.Kind == KindVerdict:
+			t.addVerdict(r)
 		case r.Kind == KindMetric:
 			if t.surr[r.Condition] == nil {
 				t.surr[r.Condition] = map[string]Row{}
@@ -346,6 +363,11 @@ func rebuild(rows []Row) ([]*traceData, error) {
 		return cmp.Or(cmp.Compare(a.group, b.group), cmp.Compare(a.device, b.device),
 			cmpNaN(a.param, b.param), cmp.Compare(a.id, b.id))
 	})
+	for _, t := range out {
+		if err := t.checkVerdict(); err != nil {
+			return nil, err
+		}
+	}
 	return out, nil
 }
 
@@ -880,7 +902,7 @@ func (a *analysis) histogram(s *support, F []float64, name, g string, li, traces
 	}
 	up, p := s.binProbabilities(F)
 	a.rep.Histograms = append(a.rep.Histograms, Histogram{Name: name, Group: g, Level: a.rep.Levels[li].Level,
-		Traces: traces, Discrete: s.discrete, Upper: up, P: p})
+		Traces: traces, Discrete: s.discrete, Upper: up, P: p, X: slices.Clone(s.grid), F: slices.Clone(F)})
 }
 
 // rng returns the generator of one Monte Carlo permutation test: a PCG

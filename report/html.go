@@ -78,6 +78,7 @@ type figure struct {
 
 type view struct {
 	Title, Source, Kicker string
+	ExtraCSS              template.CSS // none: the shared style sheet serves
 	Facts                 []fact
 	TraceWarnings         []string
 	Nav                   []fact // id, title
@@ -583,7 +584,5 @@ func capitalise(s string) string {
 	return strings.ToUpper(s[:1]) + s[1:]
 }
 
-// page is the report template. It is written in XHTML syntax (every element
-// closed, no named entities besides the XML ones) so that the output parses
-// as XML as well as HTML.
-var page = template.Must(template.New("report").Parse(pageTemplate))
+// page is the single-trace report template with the shared parts.
+var page = parsePage("report", pageTemplate)
