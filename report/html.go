@@ -549,14 +549,17 @@ func quantity(x, scale float64, unit string) string {
 }
 
 // signed prints a contribution with an explicit sign.
-func signed(x float64) string {
+func signed(x float64) string { return signedDigits(x, 3) }
+
+// signedDigits prints x with d decimals and an explicit sign, "—" for NaN.
+func signedDigits(x float64, d int) string {
 	if math.IsNaN(x) {
 		return "—"
 	}
 	if x >= 0 {
-		return "+" + strconv.FormatFloat(x, 'f', 3, 64)
+		return "+" + strconv.FormatFloat(x, 'f', d, 64)
 	}
-	return minus(strconv.FormatFloat(x, 'f', 3, 64))
+	return minus(strconv.FormatFloat(x, 'f', d, 64))
 }
 
 func fixedOrDash(x float64, d int) string {
