@@ -235,6 +235,7 @@ type traceData struct {
 	surr                     map[string]map[string]Row // method → metric → row
 	dists                    map[[2]string]*Distribution
 	verdict                  *Verdict
+	mixedModels              bool
 }
 
 // Analyze runs every test of the campaign on the per-trace table (rows

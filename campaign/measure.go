@@ -176,11 +176,13 @@ type Record struct {
 }
 
 // Verdict is a classifier's verdict on one trace: the class (one of
-// Classes, or Undetermined) and the probability of every class.
+// Classes, or Undetermined), the probability of every class, and the
+// model that gave it.
 type Verdict struct {
 	Class         string
 	Classes       []string
 	Probabilities []float64
+	Model         string
 }
 
 // MethodSummary is a metric's distribution over one method's surrogates of

@@ -161,6 +161,32 @@ func WriteSummary(w io.Writer, rep Report, o MarkdownOptions) error {
 	}
 	p.f("\n")
 
+	if len(rep.Verdicts) > 0 {
+		classes := rep.VerdictClasses()
+		p.f("## Verdicts\n\nThe classifier's verdicts (%s) per group and %s; each trace's verdict and class probabilities are in traces.csv (rows of kind verdict) and in report.html.\n\n", strings.Join(rep.VerdictModels(), ", "), label)
+		p.f("| group | %s | %s |\n|---|---|%s\n", cell(label), strings.Join(classes, " | "), strings.Repeat("---|", len(classes)))
+		for _, g := range rep.Groups {
+			for _, lv := range rep.Levels {
+				n := make([]string, len(classes))
+				seen := false
+				for ci, c := range classes {
+					k := 0
+					for _, v := range rep.Verdicts {
+						if v.Group == g && v.Level == lv.Level && v.Class == c {
+							k++
+						}
+					}
+					n[ci] = strconv.Itoa(k)
+					seen = seen || k > 0
+				}
+				if seen {
+					p.f("| %s | %s | %s |\n", cell(g), cell(lv.Level), strings.Join(n, " | "))
+				}
+			}
+		}
+		p.f("\n")
+	}
+
 	if trend := rep.select_(QuestionTrend); len(trend) > 0 {
 		p.f("## Trend with %s\n\n", label)
 		p.f("Spearman's ρ of each metric with %s over a group's traces, and the Theil–Sen slope with its %s interval.\n\n", label, pct(1-rep.Alpha))

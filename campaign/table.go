@@ -21,13 +21,17 @@ const (
 	// KindVerdict rows hold the classifier's verdict on the original trace:
 	// one row per class with its probability in Value, N = 1 on the class
 	// of the verdict and 0 on the others; an undetermined verdict adds a
-	// row named Undetermined (Value empty, N = 1).
+	// row named Undetermined (Value empty, N = 1). Their Condition names
+	// the model that gave the verdict.
 	KindVerdict = "verdict"
 )
 
 // Undetermined is the class name of a verdict the classifier does not
 // commit to (classifier.UndeterminedLabel).
 const Undetermined = "undetermined"
+
+// UnnamedModel is the condition of verdict rows whose model has no name.
+const UnnamedModel = "unnamed model"
 
 // Row is one line of the tidy per-trace table: a metric of a trace under a
 // condition (the original, or the mean over one method's surrogates), or
@@ -96,9 +100,13 @@ func Rows(rec Record, parameter string) []Row {
 	}
 	if v := rec.Verdict; v != nil {
 		decided := false
+		model := v.Model
+		if model == "" {
+			model = UnnamedModel
+		}
 		for i, c := range v.Classes {
 			r := base
-			r.Kind, r.Condition, r.Name, r.Value = KindVerdict, Original, c, v.Probabilities[i]
+			r.Kind, r.Condition, r.Name, r.Value = KindVerdict, model, c, v.Probabilities[i]
 			if c == v.Class {
 				r.N, decided = 1, true
 			}
@@ -106,7 +114,7 @@ func Rows(rec Record, parameter string) []Row {
 		}
 		if !decided {
 			r := base
-			r.Kind, r.Condition, r.Name, r.Value, r.N = KindVerdict, Original, Undetermined, nan, 1
+			r.Kind, r.Condition, r.Name, r.Value, r.N = KindVerdict, model, Undetermined, nan, 1
 			out = append(out, r)
 		}
 	}

@@ -20,6 +20,7 @@ type TraceVerdict struct {
 	Top           string    `json:"top"`
 	Classes       []string  `json:"classes"`
 	Probabilities []float64 `json:"probabilities"`
+	Model         string    `json:"model"`
 }
 
 // addVerdict adds a verdict row to the trace.
@@ -28,6 +29,10 @@ func (t *traceData) addVerdict(r Row) {
 		t.verdict = &Verdict{}
 	}
 	v := t.verdict
+	if v.Model != "" && v.Model != r.Condition {
+		t.mixedModels = true
+	}
+	v.Model = r.Condition
 	if r.N == 1 {
 		v.Class = r.Name
 	}
@@ -47,6 +52,9 @@ func (t *traceData) checkVerdict() error {
 	}
 	if v.Class == "" {
 		return fmt.Errorf("%s: verdict rows mark no class as the verdict (n = 1): %w", t.id, ErrTable)
+	}
+	if t.mixedModels {
+		return fmt.Errorf("%s: verdict rows name different models: %w", t.id, ErrTable)
 	}
 	idx := make([]int, len(v.Classes))
 	for i := range idx {
@@ -79,8 +87,17 @@ func (a *analysis) verdicts() {
 		}
 		a.rep.Verdicts = append(a.rep.Verdicts, TraceVerdict{File: t.id, Group: t.group, Device: t.device,
 			Level: a.rep.Levels[a.level(t)].Level, Param: t.param, Class: v.Class, Top: top,
-			Classes: v.Classes, Probabilities: v.Probabilities})
+			Classes: v.Classes, Probabilities: v.Probabilities, Model: v.Model})
 	}
+}
+
+// VerdictModels returns the models that gave the verdicts, sorted.
+func (r Report) VerdictModels() []string {
+	seen := map[string]bool{}
+	for _, v := range r.Verdicts {
+		seen[v.Model] = true
+	}
+	return sortedKeys(seen)
 }
 
 // VerdictClasses returns the classes that occur in the verdicts: the

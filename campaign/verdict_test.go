@@ -18,19 +18,19 @@ import (
 func TestVerdictRows(t *testing.T) {
 	tr := Trace{ID: "b.csv", Group: "g", Device: "D1", Level: "1.0"}
 	rec := Record{Trace: tr, Samples: 100, Verdict: &Verdict{Class: "stochastic",
-		Classes: []string{"stochastic", "chaotic", "regular"}, Probabilities: []float64{0.7, 0.2, 0.1}}}
+		Classes: []string{"stochastic", "chaotic", "regular"}, Probabilities: []float64{0.7, 0.2, 0.1}, Model: "m1"}}
 	rows := Rows(rec, "bias_V")
 	if len(rows) != 3 {
 		t.Fatalf("%d verdict rows, want 3", len(rows))
 	}
 	for _, r := range rows {
-		if r.Kind != KindVerdict || (r.N == 1) != (r.Name == "stochastic") {
+		if r.Kind != KindVerdict || (r.N == 1) != (r.Name == "stochastic") || r.Condition != "m1" {
 			t.Errorf("row %+v", r)
 		}
 	}
 	und := rec
 	und.Trace.ID, und.Trace.Level = "a.csv", "0.5"
-	und.Verdict = &Verdict{Class: Undetermined, Classes: []string{"chaotic", "regular", "stochastic"}, Probabilities: []float64{0.4, 0.2, 0.4}}
+	und.Verdict = &Verdict{Class: Undetermined, Classes: []string{"chaotic", "regular", "stochastic"}, Probabilities: []float64{0.4, 0.2, 0.4}, Model: "m1"}
 	urows := Rows(und, "bias_V")
 	if len(urows) != 4 || urows[3].Name != Undetermined || urows[3].N != 1 || !math.IsNaN(urows[3].Value) {
 		t.Fatalf("undetermined rows %+v", urows)
@@ -73,6 +73,20 @@ func TestVerdictRows(t *testing.T) {
 	}
 	if got := rep.VerdictClasses(); !slices.Equal(got, []string{"chaotic", "regular", "stochastic", Undetermined}) {
 		t.Errorf("classes %v", got)
+	}
+	if got := rep.VerdictModels(); !slices.Equal(got, []string{"m1"}) {
+		t.Errorf("models %v", got)
+	}
+	// The rows of one trace must name one model.
+	var mixed []Row
+	for _, r := range back {
+		if r.Kind == KindVerdict && r.File == "b.csv" && r.Name == "regular" {
+			r.Condition = "m2"
+		}
+		mixed = append(mixed, r)
+	}
+	if _, err := Analyze(mixed, AnalyzeOptions{}); !errors.Is(err, ErrTable) || !strings.Contains(err.Error(), "different models") {
+		t.Errorf("mixed models: %v", err)
 	}
 	// Rows that mark no class as the verdict are refused.
 	var bad []Row

@@ -47,8 +47,6 @@ type CampaignOptions struct {
 	Caution string
 	// LeftOut lists the entries of the campaign that could not be used.
 	LeftOut []string
-	// Model names the classifier model of the verdicts.
-	Model string
 	// Generator names the program in the footer.
 	Generator string
 }
@@ -216,7 +214,7 @@ func campaignViewOf(rep campaign.Report, o CampaignOptions) campaignView {
 		Notes:      rep.Notes,
 		LeftOut:    o.LeftOut,
 		Caution:    caution,
-		Model:      o.Model,
+		Model:      strings.Join(rep.VerdictModels(), ", "),
 		AdjustName: adjName,
 		ParamLabel: label,
 		Alpha:      h3(rep.Alpha),
@@ -243,8 +241,8 @@ func campaignViewOf(rep campaign.Report, o CampaignOptions) campaignView {
 		v.Facts = append(v.Facts, fact{"Surrogates", "none"})
 	}
 	v.Facts = append(v.Facts, fact{"Significance", fmt.Sprintf("%s-adjusted p ≤ %s per family", adjName, h3(rep.Alpha))}, fact{"Seed", strconv.FormatUint(rep.Seed, 10)})
-	if o.Model != "" {
-		v.Facts = append(v.Facts, fact{"Model", o.Model})
+	if v.Model != "" {
+		v.Facts = append(v.Facts, fact{"Model of the verdicts", v.Model})
 	}
 	titles := map[string]string{campaignVerdicts: "Verdicts", campaignCurves: "Metrics against " + label,
 		campaignDistributions: "Distributions", campaignTests: "Tests", campaignMethods: "Methods and references"}

@@ -64,7 +64,7 @@ var campaignOnce = sync.OnceValues(func() (*campaignFixture, error) {
 				if err != nil {
 					return nil, err
 				}
-				rec.Verdict = &campaign.Verdict{Class: v.Class, Classes: v.Classes, Probabilities: v.Probabilities}
+				rec.Verdict = &campaign.Verdict{Class: v.Class, Classes: v.Classes, Probabilities: v.Probabilities, Model: m.Source}
 				rows = append(rows, campaign.Rows(rec, "bias_V")...)
 			}
 		}
@@ -75,7 +75,7 @@ var campaignOnce = sync.OnceValues(func() (*campaignFixture, error) {
 		return nil, err
 	}
 	var b bytes.Buffer
-	if err := WriteCampaign(&b, rep, CampaignOptions{Source: "fixture.csv", ParamLabel: "V_G (V)", Model: m.Source,
+	if err := WriteCampaign(&b, rep, CampaignOptions{Source: "fixture.csv", ParamLabel: "V_G (V)",
 		LeftOut: []string{"stressed/D3_1.0.csv: not measured"}, Generator: "tracesift test"}); err != nil {
 		return nil, err
 	}
@@ -244,7 +244,7 @@ func TestCampaignReportStructure(t *testing.T) {
 	if scripts != 1 {
 		t.Errorf("%d script elements, want the one inline script", scripts)
 	}
-	for _, want := range []string{CampaignCaution, "Okabe", verdictColour("stochastic"), "stressed/D3_1.0.csv: not measured", "Fitted tails", "tracesift test"} {
+	for _, want := range []string{CampaignCaution, "Okabe", verdictColour("stochastic"), "stressed/D3_1.0.csv: not measured", "Fitted tails", "tracesift test", "test model (40 trees)"} {
 		if !bytes.Contains(html, []byte(esc(want))) {
 			t.Errorf("report lacks %q", want)
 		}
@@ -288,7 +288,7 @@ func TestCampaignReportDeterministic(t *testing.T) {
 		t.Fatal(err)
 	}
 	var b bytes.Buffer
-	if err := WriteCampaign(&b, rep, CampaignOptions{Source: "fixture.csv", ParamLabel: "V_G (V)", Model: "test model (40 trees)",
+	if err := WriteCampaign(&b, rep, CampaignOptions{Source: "fixture.csv", ParamLabel: "V_G (V)",
 		LeftOut: []string{"stressed/D3_1.0.csv: not measured"}, Generator: "tracesift test"}); err != nil {
 		t.Fatal(err)
 	}

@@ -39,6 +39,7 @@ type surveyOptions struct {
 	noFigures  bool
 	model      string
 	noVerdicts bool
+	title      string
 }
 
 // Output file names of survey.
@@ -138,6 +139,7 @@ which are then exactly those of one run.
 	f.BoolVar(&o.noFigures, "no-figures", false, "do not draw the PNG figures (report.html is written all the same)")
 	f.StringVar(&o.model, "model", "", "classifier model file for the verdicts (default: the embedded model)")
 	f.BoolVar(&o.noVerdicts, "no-verdicts", false, "do not classify the traces (no verdict grid)")
+	f.StringVar(&o.title, "title", "", "the campaign's name in report.html (default: the campaign description, the --match pattern, or the --from tables)")
 	return c
 }
 
@@ -177,7 +179,6 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 	var leftOut, leftOutHTML []string
 	var failed error
 	source := strings.Join(o.from, ", ")
-	modelName := ""
 	if len(o.from) > 0 {
 		for _, name := range o.from {
 			f, err := os.Open(name)
@@ -213,7 +214,6 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 			if model, err = loadModel(o.model); err != nil {
 				return err
 			}
-			modelName = model.Source
 		}
 		if len(plan.Traces) == 0 {
 			return fmt.Errorf("no usable trace in the campaign (problems above)")
@@ -238,7 +238,7 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 					if err != nil {
 						return campaign.Record{}, fmt.Errorf("%s: verdict: %w", name, err)
 					}
-					rec.Verdict = &campaign.Verdict{Class: v.Class, Classes: v.Classes, Probabilities: v.Probabilities}
+					rec.Verdict = &campaign.Verdict{Class: v.Class, Classes: v.Classes, Probabilities: v.Probabilities, Model: model.Source}
 				}
 				return rec, nil
 			},
@@ -260,6 +260,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		if failed == nil && len(plan.Problems) > 0 {
 			failed = errSomeFailed
 		}
+	}
+	if o.title != "" {
+		source = o.title
 	}
 	campaign.SortRows(rows)
 	for _, out := range []struct {
@@ -312,8 +315,7 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		{surveyHistograms, func(w io.Writer) error { return campaign.WriteHistogramsCSV(w, rep) }},
 		{surveySummary, func(w io.Writer) error { return campaign.WriteSummary(w, rep, md) }},
 		{surveyReport, func(w io.Writer) error {
-			return report.WriteCampaign(w, rep, report.CampaignOptions{Source: source, ParamLabel: o.paramLabel,
-				LeftOut: leftOutHTML, Model: modelName})
+			return report.WriteCampaign(w, rep, report.CampaignOptions{Source: source, ParamLabel: o.paramLabel, LeftOut: leftOutHTML})
 		}},
 	}
 	for li, lv := range rep.Levels {
