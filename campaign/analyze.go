@@ -347,16 +347,7 @@ func rebuild(rows []Row) ([]*traceData, error) {
 	out := make([]*traceData, 0, len(byID))
 	for _, t := range byID {
 		for _, d := range t.dists {
-			idx := make([]int, len(d.X))
-			for i := range idx {
-				idx[i] = i
-			}
-			sort.Slice(idx, func(a, b int) bool { return d.X[idx[a]] < d.X[idx[b]] })
-			x, w := make([]float64, len(idx)), make([]float64, len(idx))
-			for i, j := range idx {
-				x[i], w[i] = d.X[j], d.W[j]
-			}
-			d.X, d.W = x, w
+			sortByKey(d.X, d.W)
 		}
 		out = append(out, t)
 	}
@@ -1038,6 +1029,22 @@ func orderNames(m map[string]bool) []string {
 	out := sortedKeys(m)
 	slices.SortStableFunc(out, func(a, b string) int { return cmp.Compare(nameRank(a), nameRank(b)) })
 	return out
+}
+
+// sortByKey sorts keys ascending and moves vals (of the same length)
+// with them; equal keys keep their order.
+func sortByKey[K cmp.Ordered, V any](keys []K, vals []V) {
+	idx := make([]int, len(keys))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return keys[idx[a]] < keys[idx[b]] })
+	k, v := make([]K, len(idx)), make([]V, len(idx))
+	for i, j := range idx {
+		k[i], v[i] = keys[j], vals[j]
+	}
+	copy(keys, k)
+	copy(vals, v)
 }
 
 func sortedCopy(x []float64) []float64 {

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"sort"
 )
 
 // TraceVerdict is the classifier's verdict on one trace of the campaign.
@@ -56,18 +55,9 @@ func (t *traceData) checkVerdict() error {
 	if t.mixedModels {
 		return fmt.Errorf("%s: verdict rows name different models: %w", t.id, ErrTable)
 	}
-	idx := make([]int, len(v.Classes))
-	for i := range idx {
-		idx[i] = i
-	}
-	sort.Slice(idx, func(a, b int) bool { return v.Classes[idx[a]] < v.Classes[idx[b]] })
-	cs, ps := make([]string, len(idx)), make([]float64, len(idx))
-	for i, j := range idx {
-		cs[i], ps[i] = v.Classes[j], v.Probabilities[j]
-	}
-	v.Classes, v.Probabilities = cs, ps
-	if v.Class != Undetermined && !slices.Contains(cs, v.Class) {
-		return fmt.Errorf("%s: verdict %q is not among the classes %v: %w", t.id, v.Class, cs, ErrTable)
+	sortByKey(v.Classes, v.Probabilities)
+	if v.Class != Undetermined && !slices.Contains(v.Classes, v.Class) {
+		return fmt.Errorf("%s: verdict %q is not among the classes %v: %w", t.id, v.Class, v.Classes, ErrTable)
 	}
 	return nil
 }

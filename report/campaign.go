@@ -597,25 +597,16 @@ func (v *campaignView) viewTests(rep campaign.Report) {
 				Orig: fixedOrDash(t.Estimate, 3), Gauss: fixedOrDash(t.Effect, 3), D: fixedOrDash(t.Statistic, 3), P: raw(t), Adj: adj(t)})
 		}
 	}
-	traces, traceTests, traceSig, traceReach := 0, 0, 0, 0
-	traceMin := math.Inf(1)
 	for _, f := range rep.Families {
 		if strings.HasPrefix(f.Name, campaign.QuestionTrace+"/") {
-			traces++
-			traceTests += f.Tests
-			traceSig += f.Significant
-			if f.Reachable {
-				traceReach++
-			}
-			traceMin = math.Min(traceMin, f.MinP)
 			continue
 		}
 		v.Families = append(v.Families, familyRow{Name: f.Name, Tests: strconv.Itoa(f.Tests), MinP: minPText(f.MinP),
 			Reachable: yesNo(f.Reachable), Significant: strconv.Itoa(f.Significant), Unreachable: !f.Reachable && f.Tests > 0})
 	}
-	if traces > 0 {
+	if tf := rep.TraceFamilies(); tf.Families > 0 {
 		v.TraceFamilies = fmt.Sprintf("Each trace is also tested against its own surrogates (rank test, one family per trace: %d families, %d tests, smallest attainable p %s, %d of %d families reachable, %d significant); they are listed in tests.csv.",
-			traces, traceTests, minPText(traceMin), traceReach, traces, traceSig)
+			tf.Families, tf.Tests, minPText(tf.MinP), tf.Reachable, tf.Families, tf.Significant)
 	}
 }
 

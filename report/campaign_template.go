@@ -20,6 +20,9 @@ p.legend span { white-space: nowrap; margin-right: .9rem; }
 svg.sw { vertical-align: middle; margin-right: .15rem; }
 span.key { display: inline-block; width: .9rem; height: .9rem; vertical-align: -.1rem; margin-right: .25rem; border-radius: 2px; }
 .wide { overflow-x: auto; }
+table.counts { width: auto; }
+table.counts td, table.counts th { padding-right: 1.6rem; }
+p.agreement a { color: var(--accent); }
 td.sig, th.sig { font-weight: 700; }
 tr.any td.metric { font-weight: 700; }
 ul.warnings li { margin: .15rem 0; }
@@ -46,23 +49,12 @@ const campaignScript = `(function () {
 // campaignTemplate is the HTML of the campaign report (its head, style
 // sheet and figure parts are in page.go).
 const campaignTemplate = `{{template "head" .}}
-<body>
-<header id="summary">
-<p class="kicker">{{.Kicker}}</p>
-<h1>{{.Source}}</h1>
-<dl class="facts">
-{{- range .Facts}}
-<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
-{{- end}}
-</dl>
+{{template "masthead" .}}
 <p class="caution"><strong>Caution.</strong> {{.Caution}}</p>
 {{- if .Warnings}}
 <p class="agreement"><strong>{{len .Warnings}} {{if eq (len .Warnings) 1}}warning{{else}}warnings{{end}}:</strong> some tests cannot reach significance with the traces or surrogates at hand, whatever the data; <a href="#warnings">what would</a> is in section 4.</p>
 {{- end}}
-<nav>
-{{- range .Nav}}
-<a href="#{{.Label}}">{{.Value}}</a>
-{{- end}}
+<nav>{{template "nav" .Nav}}
 </nav>
 </header>
 
@@ -85,7 +77,7 @@ const campaignTemplate = `{{template "head" .}}
 {{- end}}
 </div>
 <p class="readout" id="grid-readout" aria-live="polite"></p>
-<table class="compact">
+<table class="compact counts">
 <thead><tr><th>group</th><th>{{.ParamLabel}}</th>{{range .Classes}}<th class="n">{{.Class}}</th>{{end}}</tr></thead>
 <tbody>
 {{- range .VerdictCounts}}
@@ -133,10 +125,7 @@ const campaignTemplate = `{{template "head" .}}
 <p>Each question is a multiple-testing family of its own, adjusted by Holm and by Benjamini–Hochberg; <strong>bold</strong>: {{.AdjustName}}-adjusted p ≤ {{.Alpha}}. Raw p-values, both adjustments and every per-trace test are in tests.csv.</p>
 {{- if .Warnings}}
 <h3 id="warnings">Warnings: what these data cannot show</h3>
-<ul class="notes warnings">
-{{- range .Warnings}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes warnings">{{template "notes" .Warnings}}
 </ul>
 {{- end}}
 {{- range .GroupTables}}
@@ -244,19 +233,13 @@ const campaignTemplate = `{{template "head" .}}
 </ol>
 {{- if .Notes}}
 <h3>Notes</h3>
-<ul class="notes">
-{{- range .Notes}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .Notes}}
 </ul>
 {{- end}}
 {{- if .LeftOut}}
 <h3>Left out</h3>
 <p>These entries of the campaign could not be used and are in no test:</p>
-<ul class="notes">
-{{- range .LeftOut}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .LeftOut}}
 </ul>
 {{- end}}
 <p class="caution"><strong>Caution.</strong> {{.Caution}}</p>

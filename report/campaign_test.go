@@ -103,85 +103,24 @@ func campaignHTML(t *testing.T) *campaignFixture {
 func TestCampaignReportStructure(t *testing.T) {
 	f := campaignHTML(t)
 	html, rep := f.html, f.rep
-	ids := map[string]bool{}
-	figs := map[string]int{} // top-level figure id → nested panels
 	var gridCells []int
-	var stack []string
-	var figID string
-	var inGrid, scripts int
+	var scripts int
 	var titles []string
-	drawn, clipDepth := 0, 0
-	d := xml.NewDecoder(bytes.NewReader(html))
-	d.Strict = true
-	for {
-		tok, err := d.Token()
-		if err == io.EOF {
-			break
+	ids, found := scanPage(t, html, true, func(e xml.StartElement, in []string) {
+		switch {
+		case e.Name.Local == "script":
+			scripts++
+		case e.Name.Local == "table" && hasClass(e, "grid"):
+			gridCells = append(gridCells, 0)
+		case e.Name.Local == "td" && hasClass(e, "cell") && len(gridCells) > 0:
+			gridCells[len(gridCells)-1]++
+		case e.Name.Local == "span" && hasClass(e, "v"):
+			titles = append(titles, attr(e, "title"))
 		}
-		if err != nil {
-			t.Fatalf("not well-formed XML: %v", err)
-		}
-		switch e := tok.(type) {
-		case xml.StartElement:
-			stack = append(stack, e.Name.Local)
-			for _, a := range e.Attr {
-				if a.Name.Local == "id" {
-					if ids[a.Value] {
-						t.Errorf("duplicate id %q", a.Value)
-					}
-					ids[a.Value] = true
-				}
-			}
-			checkNoExternal(t, e, true)
-			switch {
-			case e.Name.Local == "script":
-				scripts++
-			case e.Name.Local == "svg" && hasClass(e, "fig"):
-				figID = attr(e, "id")
-				for _, a := range e.Attr {
-					if a.Name.Local == "aria-labelledby" {
-						figID = strings.TrimSuffix(a.Value, "-t")
-					}
-				}
-				figs[figID] = 0
-				drawn = 0
-			case e.Name.Local == "svg" && figID != "":
-				figs[figID]++
-			case e.Name.Local == "table" && hasClass(e, "grid"):
-				inGrid = 1
-				gridCells = append(gridCells, 0)
-			case e.Name.Local == "td" && inGrid > 0 && hasClass(e, "cell"):
-				gridCells[len(gridCells)-1]++
-			case e.Name.Local == "span" && hasClass(e, "v"):
-				titles = append(titles, attr(e, "title"))
-			case clipDepth > 0:
-				clipDepth++
-				switch e.Name.Local {
-				case "path", "rect", "circle":
-					drawn++
-				}
-			case e.Name.Local == "g" && hasAttr(e, "clip-path"):
-				clipDepth = 1
-			}
-		case xml.EndElement:
-			name := stack[len(stack)-1]
-			stack = stack[:len(stack)-1]
-			switch {
-			case clipDepth > 0:
-				clipDepth--
-			case name == "table" && inGrid > 0:
-				inGrid = 0
-			case name == "svg" && figID != "" && !slices.Contains(stack, "svg"):
-				if drawn == 0 {
-					t.Errorf("figure %s draws nothing in its plot areas", figID)
-				}
-				figID = ""
-			}
-		case xml.CharData:
-			if bytes.Contains(e, []byte("@import")) || (bytes.Contains(e, []byte("url(")) && !bytes.Contains(e, []byte("url(#"))) {
-				t.Errorf("text or style references something outside the file: %.80q", e)
-			}
-		}
+	})
+	figs := map[string]int{} // figure id → nested panels
+	for _, f := range found {
+		figs[f.id] = f.panels
 	}
 	for _, id := range CampaignSections() {
 		if !ids[id] {
@@ -257,16 +196,6 @@ func TestCampaignReportStructure(t *testing.T) {
 	if m := regexp.MustCompile(`[0-9]e[-+][0-9]`).Find(html); m != nil {
 		t.Errorf("a number in e-notation: %q (labels use one notation with raised exponents)", m)
 	}
-}
-
-// attr returns the value of the attribute name ("" when absent).
-func attr(e xml.StartElement, name string) string {
-	for _, a := range e.Attr {
-		if a.Name.Local == name {
-			return a.Value
-		}
-	}
-	return ""
 }
 
 // TestCampaignReportDeterministic: the same tables give the same bytes,

@@ -3,8 +3,10 @@ package report
 import "html/template"
 
 // The parts every page of the report package shares: the document head
-// with the common style sheet, a figure with its caption, and the "not
-// shown" lines of a section. The single-trace page (template.go) and the
+// with the common style sheet, the masthead (kicker, title and facts at
+// the top of the body), a figure with its caption, lists of facts
+// (inside a <dl>), of notes (inside a <ul>) and of section links (inside
+// <nav>), and the "not shown" lines of a section. The single-trace page (template.go) and the
 // campaign page (campaign_template.go) are parsed together with them.
 // Styling goals: plain and readable on screen and on paper — dark text on
 // white, thin rules, one accent colour, figures at most one text width
@@ -24,6 +26,18 @@ const pageParts = `{{define "head"}}<!DOCTYPE html>
 {{.SVG}}
 <figcaption>{{.Caption}}</figcaption>
 </figure>{{end}}
+{{- define "masthead"}}<body>
+<header id="summary">
+<p class="kicker">{{.Kicker}}</p>
+<h1>{{.Source}}</h1>
+<dl class="facts">{{template "facts" .Facts}}
+</dl>{{end}}
+{{- define "facts"}}{{range .}}
+<dt>{{.Label}}</dt><dd>{{.Value}}</dd>{{end}}{{end}}
+{{- define "notes"}}{{range .}}
+<li>{{.}}</li>{{end}}{{end}}
+{{- define "nav"}}{{range .}}
+<a href="#{{.Label}}">{{.Value}}</a>{{end}}{{end}}
 {{- define "failures"}}{{range .}}
 <p class="failed">Not shown: {{.}}</p>{{end}}{{end}}`
 

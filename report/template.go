@@ -3,27 +3,13 @@ package report
 // pageTemplate is the HTML of the single-trace report (its head, style
 // sheet and figure parts are in page.go).
 const pageTemplate = `{{template "head" .}}
-<body>
-<header id="summary">
-<p class="kicker">{{.Kicker}}</p>
-<h1>{{.Source}}</h1>
-<dl class="facts">
-{{- range .Facts}}
-<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
-{{- end}}
-</dl>
+{{template "masthead" .}}
 {{- if .TraceWarnings}}
 <p><strong>Notes from reading the file:</strong></p>
-<ul class="notes">
-{{- range .TraceWarnings}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .TraceWarnings}}
 </ul>
 {{- end}}
-<nav>
-{{- range .Nav}}
-<a href="#{{.Label}}">{{.Value}}</a>
-{{- end}}
+<nav>{{template "nav" .Nav}}
 </nav>
 </header>
 
@@ -40,18 +26,12 @@ const pageTemplate = `{{template "head" .}}
 {{template "figure" .ProbFig}}
 {{- if .Reasons}}
 <p><strong>Why undetermined:</strong></p>
-<ul class="notes">
-{{- range .Reasons}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .Reasons}}
 </ul>
 {{- end}}
 <h3>Warnings</h3>
 {{- if .Warnings}}
-<ul class="notes">
-{{- range .Warnings}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .Warnings}}
 </ul>
 {{- else}}
 <p class="muted">No recording-quality warnings (length, clipping, quantisation, drift, mains interference).</p>
@@ -93,10 +73,7 @@ const pageTemplate = `{{template "head" .}}
 {{- end}}
 </div>
 {{- if .GraphRows}}
-<dl class="facts two">
-{{- range .GraphRows}}
-<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
-{{- end}}
+<dl class="facts two">{{template "facts" .GraphRows}}
 </dl>
 {{- end}}
 </section>
@@ -162,10 +139,7 @@ const pageTemplate = `{{template "head" .}}
 {{template "figure" .}}
 {{- end}}
 {{- if .SurrogateNotes}}
-<ul class="notes">
-{{- range .SurrogateNotes}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .SurrogateNotes}}
 </ul>
 {{- end}}
 </section>
@@ -187,10 +161,7 @@ const pageTemplate = `{{template "head" .}}
 </tbody>
 </table>
 <h3>Model</h3>
-<dl class="facts two">
-{{- range .ModelFacts}}
-<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
-{{- end}}
+<dl class="facts two">{{template "facts" .ModelFacts}}
 </dl>
 <h3>References</h3>
 <ol class="refs">

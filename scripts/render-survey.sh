@@ -8,9 +8,8 @@
 # Writes OUTDIR/report.html (with the survey's other outputs) and
 # OUTDIR/report.png (OUTDIR defaults to /tmp/tracesift-survey). Needs Go;
 # the screenshot needs Chromium (Debian: apt-get install chromium) and is
-# skipped with a message without it. The browser is kept off the network:
-# every URL goes to a closed port on the loopback interface and no host
-# name resolves. CI does not run this script (report/chromium_test.go
+# skipped with a message without it; the browser is kept off the network
+# (scripts/headless.sh). CI does not run this script (report/chromium_test.go
 # checks the page in the browser).
 set -eu
 
@@ -29,30 +28,9 @@ if [ ! -s "$out/report.html" ]; then
 	exit 1
 fi
 
-browser=""
-for b in chromium chromium-browser google-chrome; do
-	if command -v "$b" >/dev/null 2>&1; then
-		browser=$b
-		break
-	fi
-done
-if [ -z "$browser" ]; then
-	echo "render-survey: Chromium not found; skipping the screenshot (report at $out/report.html)"
-	exit 0
-fi
-
-profile=$(mktemp -d)
-trap 'rm -rf "$profile"' EXIT
-sandbox=""
-if [ "$(id -u)" = 0 ]; then
-	sandbox="--no-sandbox" # Chromium refuses to run as root with its sandbox
-fi
-"$browser" --headless $sandbox --disable-gpu --disable-background-networking \
-	--disable-component-update --disable-sync --disable-extensions --no-first-run \
-	--proxy-server=http://127.0.0.1:1 --proxy-bypass-list='<-loopback>' \
-	--host-resolver-rules='MAP * ~NOTFOUND' \
-	--user-data-dir="$profile" --hide-scrollbars \
-	--screenshot="$out/report.png" --window-size=1200,${HEIGHT:-1500} \
-	"file://$out/report.html" >/dev/null 2>&1
+name=render-survey page="$out/report.html"
+. "$root/scripts/headless.sh"
+headless --hide-scrollbars --screenshot="$out/report.png" --window-size=1200,${HEIGHT:-1500} \
+	"file://$out/report.html"
 echo "report:     $out/report.html"
 echo "screenshot: $out/report.png"
