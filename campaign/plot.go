@@ -120,9 +120,9 @@ func PlotMetric(w io.Writer, rep Report, metric, paramLabel string) error {
 			if err != nil {
 				return fmt.Errorf("plot %s: %w", metric, err)
 			}
-			fill := col
-			fill.A = 0x50
-			pg.Color = fill
+			// A translucent fill: non-premultiplied (color.RGBA with a low
+			// alpha but full RGB is not a valid premultiplied colour).
+			pg.Color = color.NRGBA{R: col.R, G: col.G, B: col.B, A: 0x50}
 			pg.LineStyle.Width = 0
 			line, err := plotter.NewLine(mid)
 			if err != nil {
