@@ -13,8 +13,8 @@ import (
 // The campaign page's colours are those of Okabe & Ito (2008, "Color
 // universal design"; checked: search.r-project.org/CRAN/refmans/see/html/palette_okabeito.html,
 // hex values as in EmilHvitfeldt.github.io/r-color-palettes/discrete/khroma/okabeito;
-// the grey #999999 of the variant with grey, rdrr.io/cran/Rbearcat/man/palette_OkabeIto.html
-// names it, its hex value is memory), which stay distinct under the
+// the variant with grey is named by rdrr.io/cran/Rbearcat/man/palette_OkabeIto.html,
+// its hex value #999999 is (memory)), which stay distinct under the
 // common colour-vision deficiencies. Classes and groups take different
 // colours of the set, so a colour means one thing on the page.
 const (

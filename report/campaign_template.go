@@ -221,7 +221,7 @@ const campaignTemplate = `{{template "head" .}}
 <li>Lacasa L, Toral R. Description of stochastic and chaotic series using visibility graphs. Phys. Rev. E 82 (2010) 036120.</li>
 <li>Luque B, Lacasa L, Ballesteros F, Luque J. Horizontal visibility graphs: exact results for random time series. Phys. Rev. E 80 (2009) 046103.</li>
 <li>Mann HB, Whitney DR. On a test of whether one of two random variables is stochastically larger than the other. Ann. Math. Statist. 18 (1947) 50 (memory).</li>
-<li>Okabe M, Ito K. Color universal design (CUD): how to make figures and presentations that are friendly to colorblind people (2008).</li>
+<li>Okabe M, Ito K. Color Universal Design (2008) (checked: search.r-project.org/CRAN/refmans/see/html/scale_color_okabeito.html).</li>
 <li>Schreiber T, Schmitz A. Improved surrogate data for nonlinearity tests. Phys. Rev. Lett. 77 (1996) 635.</li>
 <li>Sen PK. Estimates of the regression coefficient based on Kendall's tau. J. Am. Stat. Assoc. 63 (1968) 1379.</li>
 <li>Smirnov N. Table for estimating the goodness of fit of empirical distributions. Ann. Math. Stat. 19 (1948) 279.</li>

@@ -51,7 +51,6 @@ type devtools struct {
 	nextID  int
 	waiting map[int]chan cdpMessage
 	events  []cdpMessage
-	loaded  chan string // session IDs of Page.loadEventFired
 	stderr  bytes.Buffer
 }
 
@@ -67,7 +66,7 @@ type cdpMessage struct {
 // startBrowser launches Chromium headless with the DevTools pipe.
 func startBrowser(t *testing.T, bin string) *devtools {
 	t.Helper()
-	d := &devtools{t: t, waiting: map[int]chan cdpMessage{}, loaded: make(chan string, 8)}
+	d := &devtools{t: t, waiting: map[int]chan cdpMessage{}}
 	cmdR, cmdW, err := os.Pipe()
 	if err != nil {
 		t.Fatal(err)
@@ -119,12 +118,6 @@ func (d *devtools) read(r *os.File) {
 			}
 		} else {
 			d.events = append(d.events, m)
-			if m.Method == "Page.loadEventFired" {
-				select {
-				case d.loaded <- m.SessionID:
-				default:
-				}
-			}
 		}
 		d.mu.Unlock()
 	}
@@ -190,7 +183,7 @@ type pageRun struct {
 	shot     image.Image
 }
 
-// visit opens url in a new 1200 × 1600 page, waits for its load event,
+// visit opens url in a new 1200 × 1600 page, waits until it is loaded,
 // evaluates expr and takes a screenshot of the viewport.
 func (d *devtools) visit(url, expr string) pageRun {
 	d.t.Helper()
@@ -207,17 +200,21 @@ func (d *devtools) visit(url, expr string) pageRun {
 	from := len(d.events)
 	d.mu.Unlock()
 	d.call(s, "Page.navigate", map[string]any{"url": url}, nil)
-	deadline := time.After(2 * time.Minute)
-wait:
+	// Loaded when the document at url is complete (the about:blank the
+	// page started with may report its own load first).
+	deadline := time.Now().Add(2 * time.Minute)
 	for {
-		select {
-		case id := <-d.loaded:
-			if id == s {
-				break wait
-			}
-		case <-deadline:
-			d.t.Fatalf("%s: no load event\n%s", url, tail(d.stderr.String(), 2000))
+		var st struct {
+			Result struct{ Value string }
 		}
+		d.call(s, "Runtime.evaluate", map[string]any{"expression": `location.href + " " + document.readyState`, "returnByValue": true}, &st)
+		if st.Result.Value == url+" complete" {
+			break
+		}
+		if time.Now().After(deadline) {
+			d.t.Fatalf("%s: not loaded (%q)\n%s", url, st.Result.Value, tail(d.stderr.String(), 2000))
+		}
+		time.Sleep(50 * time.Millisecond)
 	}
 	var ev struct {
 		Result struct{ Value any }
