@@ -90,7 +90,7 @@ func tdsNumeric(t uint32) bool {
 func tdsTypeName(t uint32) string {
 	names := map[uint32]string{tdsExtended: "extended float", tdsExtendedUnit: "extended float with unit",
 		tdsString: "string", tdsTimeStamp: "time stamp", tdsFixedPoint: "fixed point", tdsComplex8: "complex single",
-		tdsComplex16: "complex double", tdsDAQmx: "DAQmx raw data", 0: "void"}
+		tdsComplex16: "complex double", tdsDAQmx: "DAQmx raw", 0: "void"}
 	if n, ok := names[t]; ok {
 		return n
 	}
