@@ -35,6 +35,7 @@ type surveyOptions struct {
 	reference  string
 	tablesOnly bool
 	noFigures  bool
+	format     string
 }
 
 // Output file names of survey.
@@ -94,7 +95,9 @@ number of surrogates, pairs or traces that could.
 condition, plus the per-trace distributions), tests.csv and tests.jsonl (one
 row per test), distributions.csv (the pooled distributions per group and
 level, binned on the distinct values where they are discrete), summary.md,
-one Markdown page per level and a PNG per metric (figures/). --tables-only stops after the per-trace tables: run parts of a
+one Markdown page per level and a PNG per metric (figures/); --format parquet
+adds traces.parquet, tests.parquet and distributions.parquet with the same
+columns and values as the CSV tables. --tables-only stops after the per-trace tables: run parts of a
 campaign on several machines, concatenate their traces.csv and give them to
 --from for the statistics, which are then exactly those of one run.
 
@@ -125,6 +128,7 @@ campaign on several machines, concatenate their traces.csv and give them to
 	f.StringVar(&o.reference, "reference", "", "group the others are compared against (default: the first in alphabetical order)")
 	f.BoolVar(&o.tablesOnly, "tables-only", false, "write the per-trace tables only (to merge with --from later)")
 	f.BoolVar(&o.noFigures, "no-figures", false, "do not draw the PNG figures")
+	f.StringVar(&o.format, "format", formatCSV, "table format: csv, or parquet to write a .parquet copy beside every CSV table (traces, tests, distributions)")
 	return c
 }
 
@@ -137,6 +141,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 	}
 	if !(o.alpha > 0 && o.alpha < 1) {
 		return usagef("--alpha %g: want 0 < alpha < 1", o.alpha)
+	}
+	if err := checkFormat(o.format, formatCSV, formatParquet); err != nil {
+		return err
 	}
 	adjust, err := groups.ParseAdjustment(o.adjust)
 	if err != nil || adjust == groups.AdjustNone {
@@ -226,13 +233,10 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		}
 	}
 	campaign.SortRows(rows)
-	for _, out := range []struct {
-		name string
-		fill func(io.Writer) error
-	}{
+	for _, out := range parquetTwins(o.format == formatParquet, []tableOutput{
 		{surveyTracesCSV, func(w io.Writer) error { return campaign.WriteTableCSV(w, rows) }},
 		{surveyTracesJSONL, func(w io.Writer) error { return campaign.WriteTableJSONL(w, rows) }},
-	} {
+	}) {
 		if err := writeOutput(e, filepath.Join(o.out, out.name), out.fill); err != nil {
 			return err
 		}
@@ -282,7 +286,7 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 			fill func(io.Writer) error
 		}{campaign.LevelFile(lv.Level), func(w io.Writer) error { return campaign.WriteLevel(w, rep, li, md) }})
 	}
-	for _, out := range outs {
+	for _, out := range parquetTwins(o.format == formatParquet, outs) {
 		if err := writeOutput(e, filepath.Join(o.out, out.name), out.fill); err != nil {
 			return err
 		}
