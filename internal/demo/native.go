@@ -112,9 +112,9 @@ func writeTDMS(b *bytes.Buffer, s Spec, id []float64) error {
 	meta = dblProp(meta, "Vg_V", s.Vg)
 	meta = dblProp(meta, "Vd_V", DrainBias)
 	meta = str(meta, group+"/'Id'")
-	meta = le.AppendUint32(meta, 20)         // raw data index length
-	meta = le.AppendUint32(meta, 0x0A)       // tdsTypeDoubleFloat
-	meta = le.AppendUint32(meta, 1)          // dimension
+	meta = le.AppendUint32(meta, 20)   // raw data index length
+	meta = le.AppendUint32(meta, 0x0A) // tdsTypeDoubleFloat
+	meta = le.AppendUint32(meta, 1)    // dimension
 	meta = le.AppendUint64(meta, uint64(quarter))
 	meta = le.AppendUint32(meta, 2)
 	meta = dblProp(meta, "wf_increment", Interval)
