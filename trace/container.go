@@ -161,6 +161,20 @@ func pickChannel(names []string, cfg config, file, what, how string) (choice, er
 	return choice{}, nil
 }
 
+// pickNumbered chooses one of n unnamed channels (numbered from 1) by
+// cfg; plural names them in the message refusing a name ("WAV channels").
+func pickNumbered(n int, cfg config, file, what, plural, how string) (choice, error) {
+	if cfg.colName != "" {
+		return choice{}, &Error{File: file, Err: ErrNoColumn,
+			Detail: fmt.Sprintf("%q: %s are chosen by number, 1 to %d", cfg.colName, plural, n)}
+	}
+	names := make([]string, n)
+	for i := range names {
+		names[i] = strconv.Itoa(i + 1)
+	}
+	return pickChannel(names, cfg, file, what, how)
+}
+
 // scanFinite locates the non-finite values of x for finish.
 func scanFinite(x []float64) badInfo {
 	var bad badInfo

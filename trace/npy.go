@@ -245,15 +245,7 @@ func readNPYArray(c container, cfg config, how string) (Trace, error) {
 	if err != nil {
 		return Trace{}, err
 	}
-	names := make([]string, a.cols)
-	for j := range names {
-		names[j] = strconv.Itoa(j + 1)
-	}
-	if cfg.colName != "" {
-		return Trace{}, &Error{File: c.name, Err: ErrNoColumn,
-			Detail: fmt.Sprintf("%q: the columns of a NumPy array are chosen by number, 1 to %d", cfg.colName, a.cols)}
-	}
-	ch, err := pickChannel(names, cfg, c.name, "column", how)
+	ch, err := pickNumbered(a.cols, cfg, c.name, "column", "the columns of a NumPy array", how)
 	if err != nil {
 		return Trace{}, err
 	}

@@ -146,15 +146,7 @@ func parseWAVFormat(c container, at int64, b []byte) (*wavFormat, error) {
 
 // wavSamples decodes the chosen channel of the n data bytes at off.
 func wavSamples(c container, f *wavFormat, off, n int64, cfg config, warnings []string) (Trace, error) {
-	names := make([]string, f.channels)
-	for i := range names {
-		names[i] = fmt.Sprint(i + 1)
-	}
-	if cfg.colName != "" {
-		return Trace{}, &Error{File: c.name, Err: ErrNoColumn,
-			Detail: fmt.Sprintf("%q: WAV channels are chosen by number, 1 to %d", cfg.colName, f.channels)}
-	}
-	ch, err := pickChannel(names, cfg, c.name, "channel", "--column N")
+	ch, err := pickNumbered(f.channels, cfg, c.name, "channel", "WAV channels", "--column N")
 	if err != nil {
 		return Trace{}, err
 	}
