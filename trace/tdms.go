@@ -120,6 +120,7 @@ type tdmsChannel struct {
 	typ       uint32
 	increment float64
 	unit      string
+	listed    bool // has had a raw data index, so is in channels
 }
 
 // tdmsExtent is where one chunk's values of the chosen channel lie.
@@ -362,12 +363,14 @@ func (w *tdmsWalker) meta(seg int, at int64, b []byte, bo binary.ByteOrder, newL
 			}
 			o.index, o.indexed, o.active = ix, true, true
 		}
-		var ch *tdmsChannel
-		if channel != "" && o.indexed {
-			name := group + "/" + channel
+		var ch *tdmsChannel // properties are kept from the first sight on
+		if channel != "" {
 			if ch = w.byPath[p]; ch == nil {
-				ch = &tdmsChannel{name: name, typ: o.index.typ}
+				ch = &tdmsChannel{name: group + "/" + channel}
 				w.byPath[p] = ch
+			}
+			if o.indexed && !ch.listed { // a channel with data, in order of its first index
+				ch.listed, ch.typ = true, o.index.typ
 				w.channels = append(w.channels, ch)
 			}
 		}

@@ -271,3 +271,28 @@ func TestTDMSDAQmxExample(t *testing.T) {
 		t.Fatalf("got %v, want %s", err, want)
 	}
 }
+
+// Properties may come before the data: a first segment names the channel
+// with no raw data (index 0xFFFFFFFF) but its wf_increment and
+// unit_string, a second gives its index and values; the description's
+// rule that later segments add to earlier meta data keeps both.
+func TestTDMSPropertiesBeforeData(t *testing.T) {
+	le := binary.LittleEndian
+	path := "/'Dev'/'Id'"
+	meta1 := le.AppendUint32(nil, 1)
+	meta1 = le.AppendUint32(meta1, uint32(len(path)))
+	meta1 = append(meta1, path...)
+	meta1 = le.AppendUint32(meta1, tdmsNoData)
+	meta1 = le.AppendUint32(meta1, 2)
+	meta1 = append(meta1, tdmsDoubleProp(le, "wf_increment", 0.5)...)
+	meta1 = append(meta1, tdmsStringProp(le, "unit_string", "nA")...)
+	file := append(leadIn(0x06, len(meta1), 0, le), meta1...)
+	meta2 := append(le.AppendUint32(nil, 1), tdmsChannelMeta(le, path, tdsI8, 3)...)
+	raw := []byte{0xFF, 2, 0x80}
+	file = append(append(append(file, leadIn(0x0A, len(meta2), len(raw), le)...), meta2...), raw...)
+	tr, err := readTDMSBytes(file, "")
+	wantValues(t, tr, err, []float64{-1, 2, -128})
+	if tr.Interval != 0.5 || tr.Unit != "nA" {
+		t.Errorf("interval %v, unit %q", tr.Interval, tr.Unit)
+	}
+}
