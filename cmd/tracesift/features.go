@@ -72,6 +72,8 @@ terminal counts feature families per window.`,
   tracesift generate henon --n 5000 | tracesift features -
   tracesift features --format csv -o features.csv testdata/demo/*/*
   tracesift features --all --format parquet -o features.parquet testdata/demo/*/*
+  tracesift features --column current testdata/formats/run.npz      # one array of a NumPy archive
+  tracesift features --column 'TW-W07 D03 stressed/Id' testdata/demo/D03-stressed-1.20V.tdms
   tracesift features --window 100000 long.csv   # windows of 10^5 samples`,
 		RunE: func(c *cobra.Command, args []string) error {
 			list, _ := c.Flags().GetBool("list")
