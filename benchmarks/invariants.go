@@ -491,7 +491,7 @@ var skipReasons = map[string]string{
 	"sc_fluct_a1":              "checked against the analytic autocovariance (Hosking 1981) in the generators tests; the suite checks DFA on fGn, white noise and Brownian motion",
 	"sc_psd_beta":              "checked against the analytic spectrum in the generators tests; the suite checks the spectral slope on fGn, fBm, white noise and Brownian motion",
 	"sideband_ratio":           "a property of the waveform's construction (AM sidebands m/2), checked in the generators tests",
-	"carrier_line":             "a property of the waveform's construction (FM Bessel sidebands), checked in the generators tests",
+	"carrier_line":             "a property of the waveform's construction (Bessel sidebands of FM and multi-tone PM), checked in the generators tests",
 	"rotation_number":          "a property of the map's orbit, not a feature: checked in the generators tests",
 	"regime1_fraction":         "a property of the generator's hidden regime path, not a feature: checked in the generators tests",
 	"tau_q2":                   "a multifractal scaling exponent of the cascade's construction, checked in the generators tests",
@@ -500,6 +500,7 @@ var skipReasons = map[string]string{
 	"tail_exponent":            "a property of the stable law (tail P(|X| > x) ~ x^−α), checked through the characteristic function and KS tests in the generators tests",
 	"kurtosis":                 "a moment of the generator, not a feature: checked in the generators tests",
 	"peak_frequency":           "the resonance of the oscillator's transfer function, checked against the analytic spectrum in the generators tests",
+	"energy":                   "a conserved quantity of the equations, not a feature: checked along recorded orbits in the generators tests",
 }
 
 // skippedInvariants lists the registry invariants no spec covers.
