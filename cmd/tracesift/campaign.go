@@ -40,6 +40,7 @@ type surveyOptions struct {
 	model      string
 	noVerdicts bool
 	title      string
+	format     string
 }
 
 // Output file names of survey.
@@ -105,7 +106,9 @@ traces.jsonl (one row per trace × metric × condition, plus the per-trace
 distributions and verdicts), tests.csv and tests.jsonl (one row per test),
 distributions.csv (the pooled distributions per group and level, binned on
 the distinct values where they are discrete), summary.md, one Markdown page
-per level and a PNG per metric (figures/). --tables-only stops after the
+per level and a PNG per metric (figures/); --format parquet adds
+traces.parquet, tests.parquet and distributions.parquet with the same
+columns and values as the CSV tables. --tables-only stops after the
 per-trace tables: run parts of a campaign on several machines, concatenate
 their traces.csv and give them to --from for the statistics and the report,
 which are then exactly those of one run.
@@ -140,6 +143,7 @@ which are then exactly those of one run.
 	f.StringVar(&o.model, "model", "", "classifier model file for the verdicts (default: the embedded model)")
 	f.BoolVar(&o.noVerdicts, "no-verdicts", false, "do not classify the traces (no verdict grid)")
 	f.StringVar(&o.title, "title", "", "the campaign's name in report.html (default: the campaign description, the --match pattern, or the --from tables)")
+	f.StringVar(&o.format, "format", formatCSV, "table format: csv, or parquet to write a .parquet copy beside every CSV table (traces, tests, distributions)")
 	return c
 }
 
@@ -152,6 +156,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 	}
 	if !(o.alpha > 0 && o.alpha < 1) {
 		return usagef("--alpha %g: want 0 < alpha < 1", o.alpha)
+	}
+	if err := checkFormat(o.format, formatCSV, formatParquet); err != nil {
+		return err
 	}
 	adjust, err := groups.ParseAdjustment(o.adjust)
 	if err != nil || adjust == groups.AdjustNone {
@@ -265,13 +272,10 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		source = o.title
 	}
 	campaign.SortRows(rows)
-	for _, out := range []struct {
-		name string
-		fill func(io.Writer) error
-	}{
+	for _, out := range parquetTwins(o.format == formatParquet, []tableOutput{
 		{surveyTracesCSV, func(w io.Writer) error { return campaign.WriteTableCSV(w, rows) }},
 		{surveyTracesJSONL, func(w io.Writer) error { return campaign.WriteTableJSONL(w, rows) }},
-	} {
+	}) {
 		if err := writeOutput(e, filepath.Join(o.out, out.name), out.fill); err != nil {
 			return err
 		}
@@ -324,7 +328,7 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 			fill func(io.Writer) error
 		}{campaign.LevelFile(lv.Level), func(w io.Writer) error { return campaign.WriteLevel(w, rep, li, md) }})
 	}
-	for _, out := range outs {
+	for _, out := range parquetTwins(o.format == formatParquet, outs) {
 		if err := writeOutput(e, filepath.Join(o.out, out.name), out.fill); err != nil {
 			return err
 		}

@@ -71,6 +71,9 @@ terminal counts feature families per window.`,
   tracesift features --all --format json testdata/demo/stressed/*.csv*
   tracesift generate henon --n 5000 | tracesift features -
   tracesift features --format csv -o features.csv testdata/demo/*/*
+  tracesift features --all --format parquet -o features.parquet testdata/demo/*/*
+  tracesift features --column current testdata/formats/run.npz      # one array of a NumPy archive
+  tracesift features --column 'TW-W07 D03 stressed/Id' testdata/demo/D03-stressed-1.20V.tdms
   tracesift features --window 100000 long.csv   # windows of 10^5 samples`,
 		RunE: func(c *cobra.Command, args []string) error {
 			list, _ := c.Flags().GetBool("list")
@@ -85,7 +88,7 @@ terminal counts feature families per window.`,
 	}
 	f := c.Flags()
 	o.in.bind(f, features.MinLength)
-	f.StringVar(&o.format, "format", formatTable, "output format: table, csv or json (JSON Lines, one object per file)")
+	f.StringVar(&o.format, "format", formatTable, "output format: table, csv, json (JSON Lines, one object per file) or parquet (the CSV table's columns and values; needs -o FILE)")
 	f.StringVarP(&o.out, "output", "o", "-", "output file (- for stdout)")
 	f.BoolVar(&o.all, "all", false, "print the whole feature vector, not only the core features")
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the randomised estimators (sampled path lengths, 0–1 test frequencies)")
@@ -102,8 +105,15 @@ type featureResult struct {
 }
 
 func runFeatures(e *env, files []string, o *featuresOptions) error {
-	if err := checkFormat(o.format, formatTable, formatCSV, formatJSON); err != nil {
+	if err := checkFormat(o.format, formatTable, formatCSV, formatJSON, formatParquet); err != nil {
 		return err
+	}
+	format, parquet := o.format, o.format == formatParquet
+	if parquet && (o.out == "-" || o.out == "") {
+		return usagef("--format parquet writes a binary file: give it with -o FILE")
+	}
+	if parquet {
+		format = formatCSV // the CSV table, converted as a whole
 	}
 	if err := o.in.validate(); err != nil {
 		return err
@@ -135,7 +145,7 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 	if o.all {
 		names = features.Names()
 	}
-	return writeOutput(e, o.out, func(w io.Writer) error {
+	fill := func(w io.Writer) error {
 		bw := bufio.NewWriter(w)
 		defer bw.Flush()
 		first := true
@@ -153,7 +163,7 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 			},
 			func(_ int, name string, r featureResult) error {
 				defer func() { first = false }()
-				switch o.format {
+				switch format {
 				case formatJSON:
 					return writeJSONLine(bw, featuresJSON(name, r, names))
 				case formatCSV:
@@ -164,7 +174,11 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 				}
 				return writeFeaturesTable(bw, name, r, names, o.all)
 			})
-	})
+	}
+	if parquet {
+		fill = asParquet(featureKinds, fill)
+	}
+	return writeOutput(e, o.out, fill)
 }
 
 type featuresLine struct {
