@@ -12,8 +12,9 @@ import (
 	"github.com/tracesift/tracesift/features"
 	"github.com/tracesift/tracesift/features/increments"
 	"github.com/tracesift/tracesift/features/surrogate"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/groups"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 // Defaults of MeasureOptions.
@@ -311,14 +312,14 @@ func traceDistributions(x []float64) ([]Distribution, error) {
 	var out []Distribution
 	for _, kind := range []struct {
 		deg, clu string
-		build    func([]float64, visibility.Options) (*visibility.Graph, error)
+		build    func([]float64, visibility.Options) (*networks.Graph, error)
 	}{
 		{DistNVGDegree, DistNVGClustering, visibility.Natural},
 		{DistHVGDegree, DistHVGClustering, visibility.Horizontal},
 	} {
 		g, err := kind.build(z, visibility.Options{})
 		if err != nil {
-			if errors.Is(err, visibility.ErrTooManyEdges) {
+			if errors.Is(err, networks.ErrTooManyEdges) {
 				continue // the metrics say why; the distribution is left out
 			}
 			return nil, err
@@ -327,7 +328,7 @@ func traceDistributions(x []float64) ([]Distribution, error) {
 		for i := range deg {
 			deg[i] = float64(g.Degree(i))
 		}
-		out = append(out, compact(kind.deg, Original, deg), compact(kind.clu, Original, visibility.LocalClustering(g)))
+		out = append(out, compact(kind.deg, Original, deg), compact(kind.clu, Original, networks.LocalClustering(g)))
 	}
 	inc, err := increments.Normalized(x, increments.Options{})
 	if err != nil {

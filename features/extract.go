@@ -8,7 +8,7 @@ import (
 	"slices"
 	"sync"
 
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks"
 )
 
 // MinLength is the shortest series Extract accepts. Shorter series leave
@@ -43,7 +43,7 @@ type Options struct {
 	Only []string
 	// Window is the longest stretch measured at once, in samples. A longer
 	// trace is cut into k = ⌈n/Window⌉ consecutive windows of equal length
-	// (±1 sample; visibility.Windows), each measured as a trace of its own
+	// (±1 sample; networks.Windows), each measured as a trace of its own
 	// (standardised, checked for a grid), one after another, and the
 	// vector holds each feature's median over the windows (see Vector).
 	// This bounds the memory and makes the time linear in the length: the
@@ -56,9 +56,9 @@ type Options struct {
 	// an error (ErrWindow): every window must hold MinLength samples.
 	Window int
 	// MaxEdges is the edge budget of each visibility graph
-	// (visibility.Options.MaxEdges); zero means visibility.DefaultMaxEdges.
+	// (visibility.Options.MaxEdges); zero means networks.DefaultMaxEdges.
 	// A graph past it leaves its features missing, with a
-	// *visibility.EdgeBudgetError in Vector.Causes.
+	// *networks.EdgeBudgetError in Vector.Causes.
 	MaxEdges int64
 	// Progress, when not nil, is called as the work advances with the
 	// number of steps done and their total: one step per feature family
@@ -108,7 +108,7 @@ type Vector struct {
 	// Causes holds the error behind each missing feature when an estimator
 	// failed (nil otherwise), for errors.Is and errors.As: a caller can
 	// tell, say, a visibility graph past its edge budget
-	// (*visibility.EdgeBudgetError) from a feature undefined for the trace.
+	// (*networks.EdgeBudgetError) from a feature undefined for the trace.
 	Causes []error `json:"-"`
 }
 
@@ -244,7 +244,7 @@ func Extract(x []float64, opts Options) (Vector, error) {
 	if w > 0 && w < 2*MinLength {
 		return Vector{}, fmt.Errorf("%w: %d samples, at least %d", ErrWindow, w, 2*MinLength)
 	}
-	ws := visibility.Windows(len(x), w)
+	ws := networks.Windows(len(x), w)
 	if len(ws) > 1 {
 		return extractWindows(x, ws, opts)
 	}
@@ -368,7 +368,7 @@ const windowSeedStream = 0x77696e646f777321 // "windows!"
 // extractWindows measures x window by window (see Options.Window). Window
 // i is measured with the i-th draw of a PCG stream seeded with
 // Options.Seed, so the randomised estimators draw afresh in every window.
-func extractWindows(x []float64, ws []visibility.Window, opts Options) (Vector, error) {
+func extractWindows(x []float64, ws []networks.Window, opts Options) (Vector, error) {
 	if _, _, err := moments(x); err != nil {
 		return Vector{}, err
 	}

@@ -4,7 +4,8 @@ import (
 	"fmt"
 	"math"
 
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 var graphFamily = family{
@@ -38,7 +39,7 @@ func computeGraph(z []float64, o Options, s *sink) {
 		if g, err := visibility.Horizontal(z, visibility.Options{MaxEdges: o.MaxEdges}); err != nil {
 			s.missErr(fmt.Errorf("HVG: %w", err), hvgNames...)
 		} else {
-			m, err := visibility.Measure(g, visibility.MeasureOptions{NoPaths: true, NoCommunities: true, Seed: o.Seed})
+			m, err := networks.Measure(g, networks.MeasureOptions{NoPaths: true, NoCommunities: true, Seed: o.Seed})
 			if err != nil {
 				s.missErr(fmt.Errorf("HVG: %w", err), hvgNames...)
 			} else {
@@ -56,7 +57,7 @@ func computeGraph(z []float64, o Options, s *sink) {
 			s.missErr(fmt.Errorf("NVG: %w", err), nvgNames...)
 			return
 		}
-		m, err := visibility.Measure(g, visibility.MeasureOptions{
+		m, err := networks.Measure(g, networks.MeasureOptions{
 			NoPaths:       !s.wants("nv_path_lnn", "nv_ball_dim"),
 			NoCommunities: !s.wants("nv_comm_q"),
 			Sources:       graphSources,

@@ -11,8 +11,8 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/tracesift/tracesift/features"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/networks"
 	"github.com/tracesift/tracesift/trace"
 )
 
@@ -64,7 +64,7 @@ depend on --window. Memory, measured on Brownian motion read from CSV:
 0.65 GB at the peak for 2^20 samples, 1.1 GB for 10^7 samples in 10
 windows. --window 0 measures any trace whole: 4.1 GB for those 10^7
 samples, whose natural visibility graph then passes --max-edges (the edge
-budget of each visibility graph, about ` + fmt.Sprint(visibility.BytesPerEdge) + ` bytes per edge at the peak), so
+budget of each visibility graph, about ` + fmt.Sprint(networks.BytesPerEdge) + ` bytes per edge at the peak), so
 its features are missing. With one input file, a progress bar on a
 terminal counts feature families per window.`,
 		Example: `  tracesift features testdata/demo/fresh/D01_fresh_Vg0.60.csv
@@ -90,7 +90,7 @@ terminal counts feature families per window.`,
 	f.BoolVar(&o.all, "all", false, "print the whole feature vector, not only the core features")
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the randomised estimators (sampled path lengths, 0–1 test frequencies)")
 	f.IntVar(&o.window, "window", features.DefaultWindow, fmt.Sprintf("measure traces longer than this many samples in windows of at most this length (at least %d; 0: measure every trace whole)", 2*features.MinLength))
-	f.Int64Var(&o.maxEdges, "max-edges", visibility.DefaultMaxEdges, fmt.Sprintf("edge budget of each visibility graph: its features are missing past this many edges (about %d bytes each at the peak)", visibility.BytesPerEdge))
+	f.Int64Var(&o.maxEdges, "max-edges", networks.DefaultMaxEdges, fmt.Sprintf("edge budget of each visibility graph: its features are missing past this many edges (about %d bytes each at the peak)", networks.BytesPerEdge))
 	f.Bool("list", false, "list the feature catalogue (name, family, meaning, reference) and exit")
 	return c
 }
@@ -226,7 +226,7 @@ func index(v features.Vector, name string) int {
 // featureReason is why feature i of v is missing ("" when present), with a
 // visibility graph past its edge budget explained in terms of the flags.
 func featureReason(v features.Vector, i int) string {
-	var eb *visibility.EdgeBudgetError
+	var eb *networks.EdgeBudgetError
 	if v.Reasons[i] == "" || !errors.As(v.Causes[i], &eb) {
 		return v.Reasons[i]
 	}

@@ -11,9 +11,10 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/tracesift/tracesift/features"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/internal/atomicfile"
 	"github.com/tracesift/tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 func init() { addCommand(newGraphCmd) }
@@ -53,10 +54,10 @@ visibility: when every sample between is strictly lower than both.
 indices); --graphml writes GraphML with each node's sample value, for
 general graph tools.
 
-Memory: a graph holds about ` + fmt.Sprint(visibility.BytesPerEdge) + ` bytes per edge at the peak (built and
+Memory: a graph holds about ` + fmt.Sprint(networks.BytesPerEdge) + ` bytes per edge at the peak (built and
 measured), besides about 130 bytes per sample, and construction stops with
-an error once it passes --max-edges edges (default ` + fmt.Sprint(visibility.DefaultMaxEdges) + `, about
-` + memory(visibility.DefaultMaxEdges) + `). A horizontal graph has fewer than 2 edges per sample; a
+an error once it passes --max-edges edges (default ` + fmt.Sprint(networks.DefaultMaxEdges) + `, about
+` + memory(networks.DefaultMaxEdges) + `). A horizontal graph has fewer than 2 edges per sample; a
 natural one has 3 per sample for white noise, 13 for 10^6 samples of a
 random walk, and more the longer and smoother the trace: 10^7 samples of
 Brownian motion give 1.6·10^8 edges, past the default budget (measured:
@@ -89,7 +90,7 @@ degree and path length of a random walk's NVG) describe graphs of N nodes.`,
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the sampled path-length sources")
 	f.IntVar(&o.sources, "sources", 64, "BFS sources sampled for path lengths above 2000 nodes")
 	f.BoolVar(&o.noPaths, "no-paths", false, "skip path length, diameter and local dimension (the slowest metrics on huge graphs)")
-	f.Int64Var(&o.maxEdges, "max-edges", visibility.DefaultMaxEdges, fmt.Sprintf("edge budget: stop with an error past this many edges (about %d bytes each at the peak)", visibility.BytesPerEdge))
+	f.Int64Var(&o.maxEdges, "max-edges", networks.DefaultMaxEdges, fmt.Sprintf("edge budget: stop with an error past this many edges (about %d bytes each at the peak)", networks.BytesPerEdge))
 	f.IntVar(&o.window, "window", 0, "build one graph per window of at most this many samples and print each metric's distribution over the windows (0: one graph of the whole trace)")
 	return c
 }
@@ -105,7 +106,7 @@ const graphGCPercent = 5
 
 // memory states the peak memory of a graph with the given number of edges.
 func memory(edges int64) string {
-	b := float64(edges) * visibility.BytesPerEdge
+	b := float64(edges) * networks.BytesPerEdge
 	switch {
 	case b >= 1e9:
 		return fmt.Sprintf("%.1f GB", b/1e9)
@@ -118,12 +119,12 @@ func memory(edges int64) string {
 // edgeBudgetError rewrites a graph that passed its edge budget in terms of
 // the command line: the flags that raise the budget or cut the trace.
 func edgeBudgetError(err error) error {
-	var eb *visibility.EdgeBudgetError
+	var eb *networks.EdgeBudgetError
 	if !errors.As(err, &eb) {
 		return err
 	}
 	return fmt.Errorf("%s of %d samples: more than %d edges, the budget set by --max-edges (about %s at the peak); raise --max-edges (%d bytes per edge) or build graphs of windows with --window N (e.g. --window %d)",
-		eb.Graph, eb.Nodes, eb.Budget, memory(eb.Budget), visibility.BytesPerEdge, min(features.DefaultWindow, max(eb.Nodes/2, 2)))
+		eb.Graph, eb.Nodes, eb.Budget, memory(eb.Budget), networks.BytesPerEdge, min(features.DefaultWindow, max(eb.Nodes/2, 2)))
 }
 
 func runGraph(e *env, file string, o *graphOptions) error {
@@ -133,7 +134,7 @@ func runGraph(e *env, file string, o *graphOptions) error {
 	if err := o.in.validate(); err != nil {
 		return err
 	}
-	kind, err := visibility.ParseKind(o.kind)
+	kind, err := networks.ParseKind(o.kind)
 	if err != nil {
 		return usagef("--kind %q: want nvg or hvg", o.kind)
 	}
@@ -157,7 +158,7 @@ func runGraph(e *env, file string, o *graphOptions) error {
 		return err
 	}
 	gopts := visibility.Options{MaxEdges: o.maxEdges}
-	mopts := visibility.MeasureOptions{Sources: o.sources, NoPaths: o.noPaths, Seed: o.seed}
+	mopts := networks.MeasureOptions{Sources: o.sources, NoPaths: o.noPaths, Seed: o.seed}
 	if o.window > 0 {
 		return runGraphWindows(e, file, tr.Source, tr.Values, kind, gopts, mopts, o)
 	}
@@ -176,7 +177,7 @@ func runGraph(e *env, file string, o *graphOptions) error {
 	if stage != nil {
 		stage(1, 2)
 	}
-	m, err := visibility.Measure(g, mopts)
+	m, err := networks.Measure(g, mopts)
 	if err != nil {
 		return fmt.Errorf("%s: %w", tr.Source, err)
 	}
@@ -184,26 +185,26 @@ func runGraph(e *env, file string, o *graphOptions) error {
 		stage(2, 2)
 	}
 	if o.edges != "" {
-		if err := atomicfile.Write(o.edges, func(w io.Writer) error { return visibility.WriteEdgeList(w, g) }); err != nil {
+		if err := atomicfile.Write(o.edges, func(w io.Writer) error { return networks.WriteEdgeList(w, g) }); err != nil {
 			return err
 		}
 	}
 	if o.graphml != "" {
-		if err := atomicfile.Write(o.graphml, func(w io.Writer) error { return visibility.WriteGraphML(w, g, tr.Values) }); err != nil {
+		if err := atomicfile.Write(o.graphml, func(w io.Writer) error { return networks.WriteGraphML(w, g, tr.Values) }); err != nil {
 			return err
 		}
 	}
 	if o.format == formatJSON {
 		return writeJSONLine(e.stdout, struct {
-			File    string             `json:"file"`
-			Samples int                `json:"samples"`
-			Metrics visibility.Metrics `json:"metrics"`
+			File    string           `json:"file"`
+			Samples int              `json:"samples"`
+			Metrics networks.Metrics `json:"metrics"`
 		}{file, samples, m})
 	}
 	return writeGraphTable(e.stdout, file, m)
 }
 
-func writeGraphTable(w io.Writer, file string, m visibility.Metrics) error {
+func writeGraphTable(w io.Writer, file string, m networks.Metrics) error {
 	fmt.Fprintf(w, "%s: %s of %d samples, %d edges\n\n", file, strings.ToUpper(m.Kind), m.Nodes, m.Edges)
 	t := newTable(w)
 	t.row("METRIC", "VALUE", "DIAGNOSTICS")
@@ -255,10 +256,10 @@ func writeGraphTable(w io.Writer, file string, m visibility.Metrics) error {
 
 // runGraphWindows builds and measures one graph per window of the trace and
 // prints each metric's distribution over the windows.
-func runGraphWindows(e *env, file, source string, x []float64, kind visibility.Kind, gopts visibility.Options, mopts visibility.MeasureOptions, o *graphOptions) error {
-	nw := len(visibility.Windows(len(x), o.window))
-	w, err := visibility.MeasureWindows(x, visibility.WindowOptions{
-		Kind: kind, Length: o.window, Graph: gopts, Measure: mopts,
+func runGraphWindows(e *env, file, source string, x []float64, kind networks.Kind, gopts visibility.Options, mopts networks.MeasureOptions, o *graphOptions) error {
+	nw := len(networks.Windows(len(x), o.window))
+	w, err := networks.MeasureWindows(x, networks.WindowOptions{
+		Kind: kind, Build: visibility.Builder(kind, gopts), Length: o.window, Measure: mopts,
 		Progress: newProgress(e, nw, "windows"),
 	})
 	if err != nil {
@@ -274,12 +275,12 @@ func runGraphWindows(e *env, file, source string, x []float64, kind visibility.K
 // each metric to its distribution over the windows, "windows" lists each
 // window's stretch and headline metrics.
 type graphWindowsLine struct {
-	File    string                             `json:"file"`
-	Samples int                                `json:"samples"`
-	Kind    string                             `json:"kind"`
-	Window  int                                `json:"window"`
-	Metrics map[string]visibility.Distribution `json:"metrics"`
-	Windows []graphWindowLine                  `json:"windows"`
+	File    string                           `json:"file"`
+	Samples int                              `json:"samples"`
+	Kind    string                           `json:"kind"`
+	Window  int                              `json:"window"`
+	Metrics map[string]networks.Distribution `json:"metrics"`
+	Windows []graphWindowLine                `json:"windows"`
 }
 
 type graphWindowLine struct {
@@ -289,12 +290,12 @@ type graphWindowLine struct {
 	Warnings []string                  `json:"warnings,omitempty"`
 }
 
-func windowedJSON(file string, w visibility.Windowed) graphWindowsLine {
-	l := graphWindowsLine{File: file, Samples: w.Samples, Kind: w.Kind, Window: w.Length, Metrics: map[string]visibility.Distribution{}}
+func windowedJSON(file string, w networks.Windowed) graphWindowsLine {
+	l := graphWindowsLine{File: file, Samples: w.Samples, Kind: w.Kind, Window: w.Length, Metrics: map[string]networks.Distribution{}}
 	for _, d := range w.Summary {
 		l.Metrics[d.Metric] = d
 	}
-	names := visibility.SummaryMetrics()
+	names := networks.SummaryMetrics()
 	for _, wm := range w.Windows {
 		line := graphWindowLine{Start: wm.Start, End: wm.End, Metrics: map[string]jsonsafe.Float{}, Warnings: wm.Metrics.Warnings}
 		for i, v := range wm.Metrics.Headline() {
@@ -305,7 +306,7 @@ func windowedJSON(file string, w visibility.Windowed) graphWindowsLine {
 	return l
 }
 
-func writeWindowedTable(out io.Writer, file string, w visibility.Windowed) error {
+func writeWindowedTable(out io.Writer, file string, w networks.Windowed) error {
 	lo, hi := w.Samples, 0
 	for _, wm := range w.Windows {
 		lo, hi = min(lo, wm.Len()), max(hi, wm.Len())
