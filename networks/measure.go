@@ -23,6 +23,11 @@ type MeasureOptions struct {
 	NoPaths bool
 	// NoCommunities skips Louvain (modularity, communities).
 	NoCommunities bool
+	// NoIrreversibility skips the in/out-degree irreversibility, which
+	// reads node order as time order: right for visibility graphs, without
+	// meaning for networks whose nodes are states (recurrence, ordinal
+	// partition networks).
+	NoIrreversibility bool
 	// Resolution of the modularity; zero means 1.
 	Resolution float64
 	// Seed seeds the sampling of BFS sources. Louvain visits nodes in index
@@ -160,7 +165,11 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 	} else {
 		m.Assortativity = r
 	}
-	ir, irErr := Irreversibility(g)
+	var ir IrreversibilityStats
+	var irErr error
+	if !opts.NoIrreversibility {
+		ir, irErr = Irreversibility(g)
+	}
 	for _, f := range []func(){louvain, bfsRun} {
 		if f != nil && !concurrent {
 			f()
@@ -192,7 +201,10 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 			m.LocalDimension = ds.Mean
 		}
 	}
-	if irErr != nil {
+	if opts.NoIrreversibility {
+		nan := math.NaN()
+		m.Irreversibility = IrreversibilityStats{KLD: nan, DroppedOut: nan, DroppedIn: nan}
+	} else if irErr != nil {
 		warn("irreversibility", irErr)
 	} else {
 		m.Irreversibility = ir
