@@ -23,6 +23,9 @@ type MeasureOptions struct {
 	NoPaths bool
 	// NoCommunities skips Louvain (modularity, communities).
 	NoCommunities bool
+	// ExactDiameter adds the exact diameter by iFUB (ExactDiameter) beside
+	// the sampled estimate, on graphs up to ExactDiameterMax nodes.
+	ExactDiameter bool
 	// NoIrreversibility skips the in/out-degree irreversibility, which
 	// reads node order as time order: right for visibility graphs, without
 	// meaning for networks whose nodes are states (recurrence, ordinal
@@ -84,6 +87,12 @@ type Metrics struct {
 	Paths           *PathStats           `json:"paths,omitempty"`
 	Dimension       *DimensionStats      `json:"dimension,omitempty"`
 	Irreversibility IrreversibilityStats `json:"irreversibility"`
+	// TailModels compares a power law, an exponential and a log-normal on
+	// the degree tail above the power law's k_min (nil when the tail is too
+	// small to fit; see TailModelsOf).
+	TailModels *TailModels `json:"tail_models,omitempty"`
+	// DiameterExact is the exact diameter (MeasureOptions.ExactDiameter).
+	DiameterExact *DiameterStats `json:"diameter_exact,omitempty"`
 	// Warnings name the metrics that could not be computed and why.
 	Warnings []string `json:"warnings,omitempty"`
 }
@@ -157,6 +166,9 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 	} else {
 		m.PowerLaw = &p
 		m.Gamma = p.Gamma
+		if tm, err := tailModelsFromHist(hist, p.KMin, 0); err == nil {
+			m.TailModels = &tm
+		}
 	}
 	m.Clustering = clusteringStats(g, nil)
 	m.ClusteringMean = m.Clustering.Mean
@@ -199,6 +211,13 @@ func Measure(g *Graph, opts MeasureOptions) (Metrics, error) {
 		if !math.IsNaN(ds.Mean) {
 			m.Dimension = &ds
 			m.LocalDimension = ds.Mean
+		}
+	}
+	if opts.ExactDiameter {
+		if d, err := ExactDiameter(g); err != nil {
+			warn("exact diameter", err)
+		} else {
+			m.DiameterExact = &d
 		}
 	}
 	if opts.NoIrreversibility {
