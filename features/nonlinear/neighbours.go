@@ -232,8 +232,8 @@ func (t *kdTree) wknn(n int32, s *wknnSearch) {
 
 // Standardize returns (x − mean)/sd, as every estimator of this package
 // sees its series (moments computed exactly scaled, see the package's
-// input checks): ErrNonFinite, ErrConstant or, for fewer than minN samples,
-// ErrTooShort.
-func Standardize(x []float64, minN int) ([]float64, error) {
-	return standardize(x, max(minN, 1), "standardize")
+// input checks), and sd (population): ErrNonFinite, ErrConstant or, for
+// fewer than minN samples, ErrTooShort.
+func Standardize(x []float64, minN int) ([]float64, float64, error) {
+	return standardizeSD(x, max(minN, 1), "standardize")
 }

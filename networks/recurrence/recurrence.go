@@ -1,6 +1,6 @@
 // Package recurrence builds recurrence networks of a time series: one node
-// per delay vector y_i = (x_i, x_{i+τ}, …, x_{i+(m−1)τ}) of the standardised
-// series, and an edge between i and j when the two states recur,
+// per delay vector y_i = (x_i, x_{i+τ}, …, x_{i+(m−1)τ}), and an edge
+// between i and j when the two states recur,
 // ‖y_i − y_j‖ ≤ ε — the recurrence matrix read as an adjacency matrix,
 // without self-loops (Marwan, Donges, Zou, Donner & Kurths, Phys. Lett. A
 // 373 (2009) 4246; Donner, Zou, Donges, Marwan & Kurths, New J. Phys. 12
@@ -47,9 +47,11 @@ type Options struct {
 	// samples, |i − j| ≤ Theiler (Theiler, Phys. Rev. A 34 (1986) 2427);
 	// 0 excludes only the self-loops, the plain recurrence network.
 	Theiler int
-	// One threshold rule, at most one set: Rate links the closest
-	// fraction of the eligible pairs (ε is the distance of the
-	// ⌊Rate·P + ½⌋-th closest pair, P the number of eligible pairs);
+	// One threshold rule, at most one set: Rate links exactly the
+	// K = ⌊Rate·P + ½⌋ closest of the P eligible pairs (ε is the distance of
+	// the K-th; pairs at distance exactly ε, common under the maximum norm
+	// because successive pairs of delay vectors share coordinate
+	// differences, are linked earliest first, by (i, j), up to K);
 	// Epsilon links pairs closer than a fixed distance, in standard
 	// deviations of x; K links each vector to its K nearest neighbours
 	// outside the Theiler window (i ~ j when j is among the K nearest of i
@@ -96,6 +98,8 @@ type Network struct {
 	TargetRate float64 `json:"target_rate"`
 	Rate       float64 `json:"rate"`
 	Pairs      int64   `json:"pairs"`
+
+	epsRaw float64 // ε in the units of x
 }
 
 // Build returns the recurrence network of x. x must be finite and not
@@ -134,11 +138,14 @@ func Build(x []float64, opts Options) (*Network, error) {
 		}
 		nw.Dim, nw.Delay, nw.DimMethod, nw.DelayMethod = emb.Dim, emb.Delay, emb.DimMethod, emb.DelayMethod
 	}
-	z, err := nonlinear.Standardize(x, 2)
+	// Distances are measured on x as given, so that equal differences
+	// (quantised read-outs) stay exactly equal and ties break by (i, j);
+	// ε is reported in standard deviations of x.
+	_, sd, err := nonlinear.Standardize(x, 2)
 	if err != nil {
 		return nil, fmt.Errorf("recurrence network: %w", err)
 	}
-	ix, err := nonlinear.NewIndex(z, nw.Dim, nw.Delay, opts.Euclidean)
+	ix, err := nonlinear.NewIndex(x, nw.Dim, nw.Delay, opts.Euclidean)
 	if err != nil {
 		return nil, fmt.Errorf("recurrence network: %w", err)
 	}
@@ -152,12 +159,12 @@ func Build(x []float64, opts Options) (*Network, error) {
 	switch {
 	case opts.K > 0:
 		nw.Rule = RuleKNN
-		if nw.Epsilon, err = linkNearest(ix, w, opts.K, budget, &buf); err != nil {
+		if nw.epsRaw, err = linkNearest(ix, w, opts.K, budget, &buf); err != nil {
 			return nil, err
 		}
 	case opts.Epsilon > 0:
-		nw.Rule, nw.Epsilon = RuleDistance, opts.Epsilon
-		pairs, _, err := collect(ix, w, opts.Epsilon, budget, false)
+		nw.Rule, nw.epsRaw = RuleDistance, opts.Epsilon*sd
+		pairs, _, err := collect(ix, w, nw.epsRaw, budget, false)
 		if err != nil {
 			return nil, err
 		}
@@ -166,10 +173,11 @@ func Build(x []float64, opts Options) (*Network, error) {
 		}
 	default:
 		nw.Rule, nw.TargetRate = RuleRate, opts.Rate
-		if nw.Epsilon, err = linkRate(ix, w, opts.Rate, nw.Pairs, budget, &buf); err != nil {
+		if nw.epsRaw, err = linkRate(ix, w, opts.Rate, nw.Pairs, budget, &buf); err != nil {
 			return nil, err
 		}
 	}
+	nw.Epsilon = nw.epsRaw / sd
 	nw.Graph = buf.Build(n, networks.KindRN)
 	nw.Rate = float64(nw.Graph.Edges()) / float64(nw.Pairs)
 	return nw, nil
@@ -212,8 +220,8 @@ const rateSamples = 200_000
 // function of the series and the options only).
 const rateStream = 0x52617465 // "Rate"
 
-// linkRate links the K = ⌊rate·P + ½⌋ closest eligible pairs (more only
-// when distances tie at the K-th) and returns ε, the K-th smallest
+// linkRate links the K = ⌊rate·P + ½⌋ closest eligible pairs, ties at
+// the K-th distance broken by (i, j), and returns ε, the K-th smallest
 // distance. The distances of rateSamples random eligible pairs give an
 // upper bracket well above the rate's quantile (four binomial standard
 // errors); every pair inside it is collected with the tree and the K-th
@@ -250,21 +258,19 @@ func linkRate(ix *nonlinear.Index, w int, rate float64, pairs, budget int64, buf
 			return 0, err
 		}
 		if int64(len(ps)) >= k {
-			sel := slices.Clone(ds)
-			epsK := order.Select(sel, int(k-1))
-			links := int64(0)
-			for _, d := range ds {
-				if d <= epsK {
-					links++
-				}
-			}
-			if links > budget {
-				return 0, budgetError(n, budget)
-			}
+			epsK := order.Select(slices.Clone(ds), int(k-1))
+			var tied []uint64
 			for m, p := range ps {
-				if ds[m] <= epsK {
+				switch {
+				case ds[m] < epsK:
 					buf.Add(int(p>>32), int(uint32(p)))
+				case ds[m] == epsK:
+					tied = append(tied, p)
 				}
+			}
+			slices.Sort(tied) // by (i, j)
+			for _, p := range tied[:k-buf.Len()] {
+				buf.Add(int(p>>32), int(uint32(p)))
 			}
 			return epsK, nil
 		}

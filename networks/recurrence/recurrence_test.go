@@ -64,11 +64,10 @@ func TestRateIsExact(t *testing.T) {
 		if g.Len() != n || nw.Pairs != pairs || g.Edges() != want {
 			t.Errorf("case %d: %d nodes, %d pairs, %d edges; want %d, %d, %d", k, g.Len(), nw.Pairs, g.Edges(), n, pairs, want)
 		}
-		z, _ := nonlinear.Standardize(c.x, 2)
-		ix, _ := nonlinear.NewIndex(z, c.dim, c.delay, c.euclid)
+		ix, _ := nonlinear.NewIndex(c.x, c.dim, c.delay, c.euclid)
 		for i := 0; i < n; i++ {
 			for j := i + 1; j < n; j++ {
-				in := j-i > c.theiler && ix.Distance(i, j) <= nw.Epsilon
+				in := j-i > c.theiler && ix.Distance(i, j) <= nw.epsRaw
 				if in != g.HasEdge(i, j) {
 					t.Fatalf("case %d: pair %d–%d at distance %g, ε = %g: edge %v, want %v", k, i, j, ix.Distance(i, j), nw.Epsilon, g.HasEdge(i, j), in)
 				}
@@ -83,8 +82,7 @@ func TestRateIsExact(t *testing.T) {
 // at least k and every edge is among the k nearest of one of its ends.
 func TestDistanceAndNearest(t *testing.T) {
 	x := gen(t, generators.Henon{A: 1.4, B: 0.3}, 800, 9)
-	z, _ := nonlinear.Standardize(x, 2)
-	ix, _ := nonlinear.NewIndex(z, 2, 1, false)
+	ix, _ := nonlinear.NewIndex(x, 2, 1, false)
 	nw, err := Build(x, Options{Dim: 2, Delay: 1, Epsilon: 0.1, Theiler: 2})
 	if err != nil {
 		t.Fatal(err)
@@ -92,7 +90,7 @@ func TestDistanceAndNearest(t *testing.T) {
 	n := ix.Len()
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
-			if in := j-i > 2 && ix.Distance(i, j) <= 0.1; in != nw.Graph.HasEdge(i, j) {
+			if in := j-i > 2 && ix.Distance(i, j) <= nw.epsRaw; in != nw.Graph.HasEdge(i, j) {
 				t.Fatalf("pair %d–%d: edge %v, want %v", i, j, nw.Graph.HasEdge(i, j), in)
 			}
 		}
