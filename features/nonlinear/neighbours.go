@@ -12,6 +12,7 @@ import (
 // Euclidean. Queries are read-only: an Index is safe for concurrent use.
 type Index struct {
 	t      *kdTree
+	maxID  []int32 // per tree node, the largest original index below it
 	z      []float64
 	dim    int
 	delay  int
@@ -32,7 +33,25 @@ func NewIndex(x []float64, dim, delay int, euclid bool) (*Index, error) {
 	if count < 1 {
 		return nil, fmt.Errorf("neighbour index: %d samples, dimension %d, delay %d: %w", len(x), dim, delay, ErrTooShort)
 	}
-	return &Index{t: newDelayTree(x, dim, delay, count, kdLeafSize), z: x, dim: dim, delay: delay, count: count, euclid: euclid}, nil
+	ix := &Index{t: newDelayTree(x, dim, delay, count, kdLeafSize), z: x, dim: dim, delay: delay, count: count, euclid: euclid}
+	ix.maxID = make([]int32, len(ix.t.nodes))
+	ix.fillMaxID(0)
+	return ix, nil
+}
+
+// fillMaxID records the largest original index under node n.
+func (ix *Index) fillMaxID(n int32) int32 {
+	nd := &ix.t.nodes[n]
+	m := int32(-1)
+	if nd.left >= 0 {
+		m = max(ix.fillMaxID(nd.left), ix.fillMaxID(nd.right))
+	} else {
+		for _, id := range ix.t.ids[nd.start:nd.end] {
+			m = max(m, id)
+		}
+	}
+	ix.maxID[n] = m
+	return m
 }
 
 // Len returns the number of delay vectors.
@@ -82,7 +101,7 @@ func (ix *Index) Within(i int, r float64, w int, q []float64, visit func(j int, 
 	if ix.euclid {
 		rr = r * r
 	}
-	s := rangeSearch{q: q, from: i + w + 1, r: rr, euclid: ix.euclid, visit: visit}
+	s := rangeSearch{q: q, from: i + w + 1, r: rr, euclid: ix.euclid, visit: visit, maxID: ix.maxID}
 	ix.t.within(0, &s)
 }
 
@@ -93,10 +112,11 @@ type rangeSearch struct {
 	r      float64 // radius (squared for Euclidean)
 	euclid bool
 	visit  func(j int, dist float64)
+	maxID  []int32 // per node, the largest original index below it
 }
 
 func (t *kdTree) within(n int32, s *rangeSearch) {
-	if t.boxLower(n, s.q, s.euclid) > s.r {
+	if int(s.maxID[n]) < s.from || t.boxLower(n, s.q, s.euclid) > s.r {
 		return
 	}
 	node := &t.nodes[n]

@@ -76,8 +76,9 @@ type Network struct {
 
 // Build returns the ordinal partition network of x. x must be finite, not
 // constant, and hold at least (d−1)·τ + 2 samples (two windows). Cost:
-// O(n·d²) to encode the windows, O(n) to count the transitions (O(n log n)
-// at order 7, where they are sorted instead of tallied in a d!×d! table).
+// O(n·d²) to encode the windows, O(n) to count the transitions (in a
+// table of the seen patterns squared, or a hash map when that would pass
+// 2^20 cells).
 func Build(x []float64, opts Options) (*Network, error) {
 	if opts.Order == 0 {
 		opts.Order = DefaultOrder
@@ -147,21 +148,23 @@ func (nw *Network) countTransitions(codes []int32, node []int32) {
 			}
 		}
 	} else {
-		all := make([]uint64, 0, len(codes))
+		// Order 7 with many patterns: tally in a map (with delay 1 at
+		// most d successors per pattern), then sort its keys.
+		tally := map[uint64]int64{}
 		for t := 1; t < len(codes); t++ {
 			a, b := codes[t-1], codes[t]
 			if a >= 0 && b >= 0 {
-				all = append(all, uint64(node[a])<<32|uint64(node[b]))
+				tally[uint64(node[a])<<32|uint64(node[b])]++
 			}
 		}
-		slices.Sort(all)
-		for k, key := range all {
-			if k > 0 && key == all[k-1] {
-				ws[len(ws)-1]++
-				continue
-			}
-			keys = append(keys, key)
-			ws = append(ws, 1)
+		keys = make([]uint64, 0, len(tally))
+		for k := range tally {
+			keys = append(keys, k)
+		}
+		slices.Sort(keys)
+		ws = make([]int64, len(keys))
+		for k, key := range keys {
+			ws[k] = tally[key]
 		}
 	}
 	nw.Off = make([]int64, v+1)

@@ -164,7 +164,7 @@ func Build(x []float64, opts Options) (*Network, error) {
 		}
 	case opts.Epsilon > 0:
 		nw.Rule, nw.epsRaw = RuleDistance, opts.Epsilon*sd
-		pairs, _, err := collect(ix, w, nw.epsRaw, budget, false)
+		pairs, _, err := collect(ix, w, nw.epsRaw, budget, 0, false)
 		if err != nil {
 			return nil, err
 		}
@@ -190,24 +190,28 @@ func budgetError(n int, budget int64) error {
 
 // collect returns the pairs i < j, j − i > w, with distance ≤ eps, packed
 // as i<<32 | j in order of i, and (when withDist) their distances; more than
-// budget pairs is an edge-budget error.
-func collect(ix *nonlinear.Index, w int, eps float64, budget int64, withDist bool) ([]uint64, []float64, error) {
-	var pairs []uint64
+// budget pairs is an edge-budget error. expect sizes the slices.
+func collect(ix *nonlinear.Index, w int, eps float64, budget, expect int64, withDist bool) ([]uint64, []float64, error) {
+	expect = min(max(expect, 0), budget)
+	pairs := make([]uint64, 0, expect)
 	var dists []float64
+	if withDist {
+		dists = make([]float64, 0, expect)
+	}
 	q := make([]float64, ix.Dim())
-	var row []uint64
+	var cur uint64
+	add := func(j int, d float64) {
+		pairs = append(pairs, cur|uint64(j))
+		if withDist {
+			dists = append(dists, d)
+		}
+	}
 	for i := 0; i < ix.Len(); i++ {
-		row = row[:0]
-		ix.Within(i, eps, w, q, func(j int, d float64) {
-			row = append(row, uint64(i)<<32|uint64(j))
-			if withDist {
-				dists = append(dists, d)
-			}
-		})
-		if int64(len(pairs)+len(row)) > budget {
+		cur = uint64(i) << 32
+		ix.Within(i, eps, w, q, add)
+		if int64(len(pairs)) > budget {
 			return nil, nil, budgetError(ix.Len(), budget)
 		}
-		pairs = append(pairs, row...)
 	}
 	return pairs, dists, nil
 }
@@ -253,7 +257,7 @@ func linkRate(ix *nonlinear.Index, w int, rate float64, pairs, budget int64, buf
 		if at := int(math.Ceil(q * float64(s))); at < s {
 			eps = sample[at]
 		}
-		ps, ds, err := collect(ix, w, eps, max(budget, 2*k), true)
+		ps, ds, err := collect(ix, w, eps, max(budget, 2*k), int64(1.02*q*float64(pairs))+1024, true)
 		if err != nil {
 			return 0, err
 		}
