@@ -21,6 +21,7 @@ import (
 	"slices"
 
 	"github.com/tracesift/tracesift/features/nonlinear"
+	"github.com/tracesift/tracesift/internal/jsonsafe"
 	"github.com/tracesift/tracesift/internal/order"
 	"github.com/tracesift/tracesift/networks"
 )
@@ -312,3 +313,6 @@ func linkNearest(ix *nonlinear.Index, w, k int, budget int64, buf *networks.Edge
 	}
 	return far, nil
 }
+
+// MarshalJSON writes the network's description with NaN as null.
+func (nw Network) MarshalJSON() ([]byte, error) { return jsonsafe.Marshal(nw, jsonsafe.Options{}) }
