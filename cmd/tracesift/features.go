@@ -49,7 +49,9 @@ slope), ordinal measures and increment statistics. The trace is standardised
 first, so the units of the file do not matter.
 
 Without --all the core features are printed; --all prints the whole vector
-with each feature's family. A feature that cannot be computed for a trace is
+with each feature's family, followed by the extended families (recurrence
+and ordinal partition networks: rn_*, opn_*), which are measured only on
+request and are not read by the classifier. A feature that cannot be computed for a trace is
 shown as missing ("—" in tables, null in JSON, empty in CSV) with the reason.
 Files are processed in parallel; one bad file is reported and skipped.
 Run 'tracesift features --list' for the catalogue with references.
@@ -87,7 +89,7 @@ terminal counts feature families per window.`,
 	o.in.bind(f, features.MinLength)
 	f.StringVar(&o.format, "format", formatTable, "output format: table, csv or json (JSON Lines, one object per file)")
 	f.StringVarP(&o.out, "output", "o", "-", "output file (- for stdout)")
-	f.BoolVar(&o.all, "all", false, "print the whole feature vector, not only the core features")
+	f.BoolVar(&o.all, "all", false, "print the whole feature vector and the extended families (rn_*, opn_*), not only the core features")
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the randomised estimators (sampled path lengths, 0–1 test frequencies)")
 	f.IntVar(&o.window, "window", features.DefaultWindow, fmt.Sprintf("measure traces longer than this many samples in windows of at most this length (at least %d; 0: measure every trace whole)", 2*features.MinLength))
 	f.Int64Var(&o.maxEdges, "max-edges", networks.DefaultMaxEdges, fmt.Sprintf("edge budget of each visibility graph: its features are missing past this many edges (about %d bytes each at the peak)", networks.BytesPerEdge))
@@ -118,7 +120,7 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 	if o.maxEdges < 1 {
 		return usagef("--max-edges %d: want at least 1", o.maxEdges)
 	}
-	fopts := features.Options{Seed: o.seed, Window: window, MaxEdges: o.maxEdges}
+	fopts := features.Options{Seed: o.seed, Window: window, MaxEdges: o.maxEdges, Extended: o.all}
 	if len(files) == 1 {
 		// Within one trace, a bar counting feature families per window
 		// (a batch of files has its own bar, per file).
@@ -133,7 +135,7 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 	}
 	names := coreFeatures
 	if o.all {
-		names = features.Names()
+		names = features.AllNames()
 	}
 	return writeOutput(e, o.out, func(w io.Writer) error {
 		bw := bufio.NewWriter(w)
@@ -327,9 +329,13 @@ func writeCatalogue(e *env) error {
 	for _, en := range features.Catalogue() {
 		t.row(en.Name, string(en.Family), en.Description, en.Reference)
 	}
+	for _, en := range features.Extended() {
+		t.row(en.Name, string(en.Family)+" (extended)", en.Description, en.Reference)
+	}
 	if err := t.flush(); err != nil {
 		return err
 	}
-	fmt.Fprintf(e.stdout, "\nschema v%d, hash %s, %d features\n", features.SchemaVersion, features.SchemaHash(), len(features.Catalogue()))
+	fmt.Fprintf(e.stdout, "\nschema v%d, hash %s, %d features; %d more in extended families (measured with --all or by name, not read by the classifier)\n",
+		features.SchemaVersion, features.SchemaHash(), len(features.Catalogue()), len(features.Extended()))
 	return nil
 }
