@@ -74,7 +74,7 @@ func DefaultMetrics() []string {
 // ("graph", "increments", "all", …) into feature names in catalogue
 // order, without duplicates. An empty list gives DefaultMetrics. "all" is
 // the schema's features; the extended families (recurrence and ordinal
-// partition networks, rn_* and opn_*: about 0.5 s more per series for
+// partition networks, rn_* and opn_*: about 0.3 s more per series for
 // the recurrence network) are measured when named, by feature or family.
 func ResolveMetrics(list []string) ([]string, error) {
 	if len(list) == 0 {

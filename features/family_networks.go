@@ -18,8 +18,8 @@ var extendedFamilies = []family{recurrenceNetFamily, ordinalNetFamily}
 // rnMaxSamples is the longest stretch of a trace the recurrence-network
 // features are measured on: its middle rnMaxSamples samples. A recurrence
 // network at a 5% rate has 0.025·N² edges: 4·10^5 at 4096 vectors, built
-// and measured in about half a second, while N = 10^5 would pass the edge
-// budget.
+// and measured in about 0.3 s of CPU ('graph --kind rn' on a demo trace,
+// BENCHMARKS.md), while N = 10^5 would pass the edge budget.
 const rnMaxSamples = 4096
 
 var recurrenceNetFamily = family{

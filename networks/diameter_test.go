@@ -95,3 +95,25 @@ func TestExactDiameter(t *testing.T) {
 		t.Errorf("empty graph: %v", err)
 	}
 }
+
+// BenchmarkExactDiameter: iFUB on visibility graphs of 10^5 samples, with
+// the number of breadth-first searches it needed.
+func BenchmarkExactDiameter(b *testing.B) {
+	for _, c := range []struct {
+		kind   Kind
+		series string
+	}{{KindHVG, "gauss"}, {KindNVG, "gauss"}, {KindNVG, "brown"}} {
+		g, err := visibility.Build(testseries.Bench(c.series, 100_000), c.kind, visibility.Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(c.kind.String()+"/"+c.series+"/n=100000", func(b *testing.B) {
+			var d DiameterStats
+			for b.Loop() {
+				d, _ = ExactDiameter(g)
+			}
+			b.ReportMetric(float64(d.BFS), "bfs")
+			b.ReportMetric(float64(d.Diameter), "diameter")
+		})
+	}
+}

@@ -45,7 +45,9 @@ type TailModel struct {
 // the same tail: R = Σ_i ln(p_A(k_i)/p_B(k_i)), positive when A fits
 // better; P is the two-sided p-value erfc(|R|/(σ√(2n))), σ the standard
 // deviation of the pointwise log ratios (Vuong, Econometrica 57 (1989)
-// 307; Clauset et al. 2009, eq. 5.6). Favours names A or B when P < Alpha,
+// 307; Clauset et al. 2009, eq. 5.6) — except when the fitted log-normal
+// is a power law over the whole tail (its limit μ → −∞), where the two
+// models are nested and P is Wilks' P(χ²₁ > 2|R|). Favours names A or B when P < Alpha,
 // and is empty when the data cannot tell them apart.
 type TailComparison struct {
 	A       string  `json:"a"`
@@ -171,9 +173,17 @@ func tailModelsFromHist(hist []int64, kmin int, alpha float64) (TailModels, erro
 			}
 			sd := math.Sqrt(s2 / n)
 			p := 1.0
-			if sd > 0 {
+			switch {
+			case models[a].m.Name == ModelPowerLaw && models[b].m.Name == ModelLogNormal && lognormalIsPowerLaw(mu, sigma, kmin, len(hist)-1):
+				// The log-normal has run to its power-law limit (μ → −∞):
+				// the models are nested there, and Vuong's statistic, whose
+				// σ shrinks with the difference, says nothing. Wilks' test
+				// instead: 2|R| against χ² with one degree of freedom
+				// (Clauset et al. 2009, section 5 on nested models).
+				p = math.Erfc(math.Sqrt(math.Abs(r)))
+			case sd > 0:
 				p = math.Erfc(math.Abs(r) / (sd * math.Sqrt(2*n)))
-			} else if r != 0 {
+			case r != 0:
 				p = 0
 			}
 			c := TailComparison{A: models[a].m.Name, B: models[b].m.Name, R: r, P: p}
@@ -217,6 +227,13 @@ func tailModelsFromHist(hist []int64, kmin int, alpha float64) (TailModels, erro
 		tm.Warnings = append(tm.Warnings, fmt.Sprintf("the degree distribution peaks at k = %d, well above k_min = %d: P(k) still rises at the start of the tail, which no power law can follow; read the exponent with care", tm.Mode, kmin))
 	}
 	return tm, nil
+}
+
+// lognormalIsPowerLaw reports whether the log-normal (μ, σ) is a power
+// law over the tail [kmin, kmax] to within the data's reach: its log-log
+// slope −1 − (ln k − μ)/σ² changes by less than 0.1 across the tail.
+func lognormalIsPowerLaw(mu, sigma float64, kmin, kmax int) bool {
+	return (math.Log(float64(kmax))-math.Log(float64(kmin)))/(sigma*sigma) < 0.1
 }
 
 // lognormalLogP is ln P(k) of the log-normal discretised to the integers

@@ -85,6 +85,12 @@ func TestTailModelsPickTheTrueLaw(t *testing.T) {
 			if f := tm.Comparisons[1].Favours; f == ModelLogNormal {
 				t.Errorf("power-law sample: the log-normal is favoured (R %g, p %g)", tm.Comparisons[1].R, tm.Comparisons[1].P)
 			}
+			// The log-normal ran to its power-law limit: nested models,
+			// Wilks' p = P(χ²₁ > 2|R|) = erfc(√|R|) (derived).
+			vu := tm.Comparisons[1]
+			if m := tm.Models[2]; !lognormalIsPowerLaw(m.Mu, m.Sigma, kmin, len(hist(c.ks))-1) || vu.P != math.Erfc(math.Sqrt(math.Abs(vu.R))) {
+				t.Errorf("power-law sample: log-normal μ %g σ %g, comparison p %g, want Wilks' %g", m.Mu, m.Sigma, vu.P, math.Erfc(math.Sqrt(math.Abs(vu.R))))
+			}
 		} else if tm.Winner != c.name || !tm.Decided {
 			t.Errorf("drawn from %s: winner %s (p %.3g, decided %v)", c.name, tm.Winner, tm.P, tm.Decided)
 		}

@@ -54,7 +54,7 @@ ends match instead, and the report says what was cut.
 Statistics are feature names ('tracesift features --list'), e.g. nl_trev_1,
 nl_fc_rho_1, nl_fc_drop_10, op_ent_d4, hv_tail_exprate, nl_div_rate, and the
 network features of the extended families: recurrence networks (rn_tdim,
-rn_trans, rn_path_mean, ...; about 0.5 s per series at 4096 samples) and
+rn_trans, rn_path_mean, ...; about 0.3 s per series at 4096 samples) and
 ordinal partition networks (opn_tent, opn_forb_frac, opn_self, ...).`,
 		Example: `  tracesift surrogate testdata/demo/stressed/D01_stressed_Vg1.20.csv --method iaaft --count 99 --stat nl_trev_1 --stat nl_fc_drop_10
   tracesift generate henon --n 2000 | tracesift surrogate - --stat nl_trev_1 --format json
