@@ -170,84 +170,14 @@ func (ix *Index) KNearest(i, w int, q []float64, ids []int, dists []float64) int
 		q = make([]float64, ix.dim)
 	}
 	q = ix.Vector(i, q)
-	s := wknnSearch{q: q, qi: i, w: w, k: len(ids), euclid: ix.euclid, ids: ids[:0], dists: dists[:0]}
-	ix.t.wknn(0, &s)
+	s := knnSearch{q: q, qi: i, w: w, k: len(ids), euclid: ix.euclid, ids: ids[:0], dists: dists[:0]}
+	ix.t.knn(0, &s)
 	if ix.euclid {
 		for k := range s.dists {
 			s.dists[k] = math.Sqrt(s.dists[k])
 		}
 	}
 	return len(s.ids)
-}
-
-// wknnSearch holds the state of one k-nearest query with a Theiler window.
-type wknnSearch struct {
-	q      []float64
-	qi, w  int
-	k      int
-	euclid bool
-	ids    []int
-	dists  []float64 // squared for Euclidean
-}
-
-func (t *kdTree) wknn(n int32, s *wknnSearch) {
-	node := &t.nodes[n]
-	if node.left < 0 {
-		d := t.dim
-		for k := int(node.start); k < int(node.end); k++ {
-			id := int(t.ids[k])
-			if dj := id - s.qi; dj <= s.w && dj >= -s.w {
-				continue
-			}
-			p := t.data[k*d : k*d+d]
-			full := len(s.ids) == s.k
-			lim := math.Inf(1)
-			if full {
-				lim = s.dists[s.k-1]
-			}
-			var dist float64
-			for c, v := range s.q {
-				g := p[c] - v
-				if s.euclid {
-					dist += g * g
-				} else {
-					dist = max(dist, math.Abs(g))
-				}
-				if dist >= lim {
-					break
-				}
-			}
-			if dist >= lim {
-				continue
-			}
-			pos := len(s.ids)
-			if !full {
-				s.ids = append(s.ids, 0)
-				s.dists = append(s.dists, 0)
-			} else {
-				pos = s.k - 1
-			}
-			for pos > 0 && s.dists[pos-1] > dist {
-				s.ids[pos], s.dists[pos] = s.ids[pos-1], s.dists[pos-1]
-				pos--
-			}
-			s.ids[pos], s.dists[pos] = id, dist
-		}
-		return
-	}
-	bl := t.boxLower(node.left, s.q, s.euclid)
-	br := t.boxLower(node.right, s.q, s.euclid)
-	first, second, b2 := node.left, node.right, br
-	if br < bl {
-		first, second, b2 = node.right, node.left, bl
-		bl = br
-	}
-	if len(s.ids) < s.k || bl < s.dists[s.k-1] {
-		t.wknn(first, s)
-	}
-	if len(s.ids) < s.k || b2 < s.dists[s.k-1] {
-		t.wknn(second, s)
-	}
 }
 
 // Standardize returns (x − mean)/sd, as every estimator of this package
