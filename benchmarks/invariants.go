@@ -270,10 +270,10 @@ const (
 	tolSpecFBM   = "bench choice, no project test: ± 0.07 as for fGn in features/scaling spectral_slope_test.go"
 	tolSpecPL    = "bench choice, no project test of this estimator on it: ± 0.05 as generators noise_test.go allows for the periodogram slope of 1/f^β noise"
 	tolSpecTS    = "bench choice, no project test: ± 0.15 (a sum of K Lorentzians is 1/f only approximately, McWhorter's band; seed spread ≈ 0.1 measured)"
-	tolHVGMean   = "derived (features/visibility hvg_test.go): the finite-n expectation 4 − 4H_n/n differs from 4 by 4H_n/n; plus 0.5/√n for the replicate spread"
+	tolHVGMean   = "derived (networks/visibility hvg_test.go): the finite-n expectation 4 − 4H_n/n differs from 4 by 4H_n/n; plus 0.5/√n for the replicate spread"
 	tolHVGSine   = "bench choice, no project test: ± 0.01 (the mean degree of an exactly periodic series converges as O(T/n))"
-	tolHVGLambda = "features/visibility hvg_test.go: 4 standard errors of the geometric maximum-likelihood fit (median StdErr of the runs)"
-	tolNVG       = "features/visibility nvg_test.go: ± 0.25 at n = 2^16 (finite-size excess of the KS-chosen tail)"
+	tolHVGLambda = "networks/visibility hvg_test.go: 4 standard errors of the geometric maximum-likelihood fit (median StdErr of the runs)"
+	tolNVG       = "networks/visibility nvg_test.go: ± 0.25 at n = 2^16 (finite-size excess of the KS-chosen tail)"
 	tolPE        = "derived (features/ordinal ordinal_test.go): 1 − H must lie within 2× the i.i.d. plug-in bias (d!−1)/(2W ln d!) at the stated length"
 	tolSC        = "derived (features/ordinal ordinal_test.go): C ≈ Q0·ln(d!)·(1 − H)·H/4, bounded with 1 − H ≤ 2× the i.i.d. bias"
 	tolForbidden = "exact: the strictly decreasing triple is the only order-3 pattern the map cannot produce"
@@ -492,7 +492,7 @@ var skipReasons = map[string]string{
 	"sc_fluct_a1":              "checked against the analytic autocovariance (Hosking 1981) in the generators tests; the suite checks DFA on fGn, white noise and Brownian motion",
 	"sc_psd_beta":              "checked against the analytic spectrum in the generators tests; the suite checks the spectral slope on fGn, fBm, white noise and Brownian motion",
 	"sideband_ratio":           "a property of the waveform's construction (AM sidebands m/2), checked in the generators tests",
-	"carrier_line":             "a property of the waveform's construction (FM Bessel sidebands), checked in the generators tests",
+	"carrier_line":             "a property of the waveform's construction (Bessel sidebands of FM and multi-tone PM), checked in the generators tests",
 	"rotation_number":          "a property of the map's orbit, not a feature: checked in the generators tests",
 	"regime1_fraction":         "a property of the generator's hidden regime path, not a feature: checked in the generators tests",
 	"tau_q2":                   "a multifractal scaling exponent of the cascade's construction, checked in the generators tests",
@@ -501,6 +501,7 @@ var skipReasons = map[string]string{
 	"tail_exponent":            "a property of the stable law (tail P(|X| > x) ~ x^−α), checked through the characteristic function and KS tests in the generators tests",
 	"kurtosis":                 "a moment of the generator, not a feature: checked in the generators tests",
 	"peak_frequency":           "the resonance of the oscillator's transfer function, checked against the analytic spectrum in the generators tests",
+	"energy":                   "a conserved quantity of the equations, not a feature: checked along recorded orbits in the generators tests",
 }
 
 // skippedInvariants lists the registry invariants no spec covers.

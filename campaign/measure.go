@@ -179,6 +179,19 @@ type Record struct {
 	// Distributions holds the per-trace distributions of the trace and, for
 	// the increments, of its Gaussianised surrogates pooled.
 	Distributions []Distribution
+	// Verdict is the classifier's verdict on the trace, set by the caller
+	// (Measure does not classify); nil for none.
+	Verdict *Verdict
+}
+
+// Verdict is a classifier's verdict on one trace: the class (one of
+// Classes, or Undetermined), the probability of every class, and the
+// model that gave it.
+type Verdict struct {
+	Class         string
+	Classes       []string
+	Probabilities []float64
+	Model         string
 }
 
 // MethodSummary is a metric's distribution over one method's surrogates of

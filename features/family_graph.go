@@ -23,7 +23,7 @@ var graphFamily = family{
 		{"nv_deg_assort", FamilyGraph, "degree assortativity of the NVG", "Newman, Phys. Rev. Lett. 89 (2002) 208701"},
 		{"nv_deg_ent", FamilyGraph, "Shannon entropy of the NVG degree distribution, nats", "Shannon (1948)"},
 		{"nv_path_lnn", FamilyGraph, "average shortest-path length of the NVG divided by ln n (estimated from 32 sampled sources above 2000 nodes)", "Watts & Strogatz (1998); small-world scaling, common practice"},
-		{"nv_ball_dim", FamilyGraph, "local graph dimension of the NVG: growth exponent of the number of nodes within graph distance r", "Shanker, Physica D 227 (2007) 153 (memory); method documented in features/visibility"},
+		{"nv_ball_dim", FamilyGraph, "local graph dimension of the NVG: growth exponent of the number of nodes within graph distance r", "Shanker, Physica D 227 (2007) 153 (memory); method documented in package networks"},
 	},
 	compute: computeGraph,
 }

@@ -56,6 +56,12 @@ func PowerLaw(g *Graph, opts PowerLawOptions) (PowerLawFit, error) {
 	return powerLawFromHist(degreeHistogram(g), opts)
 }
 
+// PowerLawCounts is PowerLaw on a degree histogram: counts[k] nodes have
+// degree k. Negative counts are taken as zero.
+func PowerLawCounts(counts []int64, opts PowerLawOptions) (PowerLawFit, error) {
+	return powerLawFromHist(nonNegative(counts), opts)
+}
+
 func powerLawFromHist(hist []int64, opts PowerLawOptions) (PowerLawFit, error) {
 	nan := math.NaN()
 	best := PowerLawFit{Gamma: nan, StdErr: nan, KS: nan}

@@ -67,6 +67,28 @@ func ExponentialTail(g *Graph, opts TailOptions) (TailFit, error) {
 	return tailFromHist(degreeHistogram(g), opts)
 }
 
+// ExponentialTailCounts is ExponentialTail on a degree histogram:
+// counts[k] nodes have degree k (a distribution pooled over several
+// graphs, say). Negative counts are taken as zero.
+func ExponentialTailCounts(counts []int64, opts TailOptions) (TailFit, error) {
+	return tailFromHist(nonNegative(counts), opts)
+}
+
+// nonNegative returns counts with negative entries set to zero (a copy
+// when there are any).
+func nonNegative(counts []int64) []int64 {
+	for i, c := range counts {
+		if c < 0 {
+			out := append([]int64(nil), counts...)
+			for j := i; j < len(out); j++ {
+				out[j] = max(out[j], 0)
+			}
+			return out
+		}
+	}
+	return counts
+}
+
 func tailFromHist(hist []int64, opts TailOptions) (TailFit, error) {
 	nan := math.NaN()
 	fit := TailFit{Lambda: nan, StdErr: nan, LambdaLS: nan, R2: nan, KS: nan}

@@ -92,6 +92,33 @@ func iidHVG(k int) float64 {
 	return math.Pow(2.0/3.0, float64(k-2)) / 3
 }
 
+// exponentialTail returns the fitted exponential tail of a degree
+// distribution at k = kmin…kmax: P(k) = share·(1 − q)·q^{k−kmin}, q = e^{−λ},
+// the geometric law of the tail (visibility.TailFit) scaled to the share of
+// the nodes it holds.
+func exponentialTail(kmin, kmax int, share, lambda float64) (ks, ps []float64) {
+	q := math.Exp(-lambda)
+	for k := kmin; k <= kmax; k++ {
+		ks = append(ks, float64(k))
+		ps = append(ps, share*(1-q)*math.Pow(q, float64(k-kmin)))
+	}
+	return ks, ps
+}
+
+// powerLawTail returns the fitted discrete power law of a degree
+// distribution at 61 points spaced evenly in log k over [kmin, kmax]:
+// P(k) = share·k^{−γ}/ζ(γ, kmin) (visibility.PowerLawFit) scaled to the
+// share of the nodes its tail holds.
+func powerLawTail(kmin, kmax int, share, gamma float64) (ks, ps []float64) {
+	z := hurwitzZeta(gamma, float64(kmin))
+	for i := 0; i <= 60; i++ {
+		k := float64(kmin) * math.Pow(float64(kmax)/float64(kmin), float64(i)/60)
+		ks = append(ks, k)
+		ps = append(ps, share*math.Pow(k, -gamma)/z)
+	}
+	return ks, ps
+}
+
 // hurwitzZeta returns ζ(s, q) = Σ_{k≥0} (k + q)^{−s} for s > 1, q > 0:
 // the first 64 terms summed, the rest by the Euler–Maclaurin formula
 // (integral, half the first omitted term and two Bernoulli corrections;

@@ -12,9 +12,11 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/tracesift/tracesift/campaign"
+	"github.com/tracesift/tracesift/classifier"
 	"github.com/tracesift/tracesift/features"
 	"github.com/tracesift/tracesift/features/surrogate"
 	"github.com/tracesift/tracesift/groups"
+	"github.com/tracesift/tracesift/report"
 )
 
 func init() { addCommand(newSurveyCmd) }
@@ -35,6 +37,9 @@ type surveyOptions struct {
 	reference  string
 	tablesOnly bool
 	noFigures  bool
+	model      string
+	noVerdicts bool
+	title      string
 }
 
 // Output file names of survey.
@@ -44,6 +49,7 @@ const (
 	surveyTestsCSV    = "tests.csv"
 	surveyTestsJSONL  = "tests.jsonl"
 	surveySummary     = "summary.md"
+	surveyReport      = "report.html"
 	surveyHistograms  = "distributions.csv"
 	surveyFigures     = "figures"
 )
@@ -68,8 +74,9 @@ say otherwise. Rows that cannot be used (a missing file, a row with more
 fields than columns, an empty group) are reported one line each with their
 line number and left out.
 
-For every trace: the metrics (visibility-graph and increment features by
-default), the same metrics on --surrogates surrogates of each --methods
+For every trace: the classifier's verdict (the embedded model, or --model;
+--no-verdicts skips it), the metrics (visibility-graph and increment
+features by default), the same metrics on --surrogates surrogates of each --methods
 (shuffle: temporal correlations destroyed; gauss: values Gaussianised, rank
 order kept; iaaft: linear correlations and values kept), and the degree,
 clustering and increment distributions. Surrogates are seeded by --seed and
@@ -90,13 +97,18 @@ Benjamini–Hochberg both reported):
 Families in which no test can reach the adjusted level are named, with the
 number of surrogates, pairs or traces that could.
 
--o DIR receives traces.csv and traces.jsonl (one row per trace × metric ×
-condition, plus the per-trace distributions), tests.csv and tests.jsonl (one
-row per test), distributions.csv (the pooled distributions per group and
-level, binned on the distinct values where they are discrete), summary.md,
-one Markdown page per level and a PNG per metric (figures/). --tables-only stops after the per-trace tables: run parts of a
-campaign on several machines, concatenate their traces.csv and give them to
---from for the statistics, which are then exactly those of one run.
+-o DIR receives report.html (one self-contained page: the verdict grid,
+each metric against the parameter with its surrogate bands, the pooled
+distributions with fitted tails, the tables of tests, the methods; open it
+in any browser, nothing is loaded from the network), traces.csv and
+traces.jsonl (one row per trace × metric × condition, plus the per-trace
+distributions and verdicts), tests.csv and tests.jsonl (one row per test),
+distributions.csv (the pooled distributions per group and level, binned on
+the distinct values where they are discrete), summary.md, one Markdown page
+per level and a PNG per metric (figures/). --tables-only stops after the
+per-trace tables: run parts of a campaign on several machines, concatenate
+their traces.csv and give them to --from for the statistics and the report,
+which are then exactly those of one run.
 
 ` + caution,
 		Example: `  tracesift survey testdata/demo/campaign.csv -o survey-out
@@ -124,7 +136,10 @@ campaign on several machines, concatenate their traces.csv and give them to
 	f.StringVar(&o.adjust, "adjust", "holm", "adjustment that decides significance: holm or bh (both are reported)")
 	f.StringVar(&o.reference, "reference", "", "group the others are compared against (default: the first in alphabetical order)")
 	f.BoolVar(&o.tablesOnly, "tables-only", false, "write the per-trace tables only (to merge with --from later)")
-	f.BoolVar(&o.noFigures, "no-figures", false, "do not draw the PNG figures")
+	f.BoolVar(&o.noFigures, "no-figures", false, "do not draw the PNG figures (report.html is written all the same)")
+	f.StringVar(&o.model, "model", "", "classifier model file for the verdicts (default: the embedded model)")
+	f.BoolVar(&o.noVerdicts, "no-verdicts", false, "do not classify the traces (no verdict grid)")
+	f.StringVar(&o.title, "title", "", "the campaign's name in report.html (default: the campaign description, the --match pattern, or the --from tables)")
 	return c
 }
 
@@ -161,8 +176,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 	}
 
 	var rows []campaign.Row
-	var leftOut []string
+	var leftOut, leftOutHTML []string
 	var failed error
+	source := strings.Join(o.from, ", ")
 	if len(o.from) > 0 {
 		for _, name := range o.from {
 			f, err := os.Open(name)
@@ -187,6 +203,17 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		for _, p := range plan.Problems {
 			fmt.Fprintf(e.stderr, "tracesift: %s\n", p)
 			leftOut = append(leftOut, "`"+p.String()+"`")
+			leftOutHTML = append(leftOutHTML, p.String())
+		}
+		source = o.match + " in " + strings.Join(args, ", ")
+		if o.match == "" {
+			source = args[0]
+		}
+		var model *classifier.Model
+		if !o.noVerdicts {
+			if model, err = loadModel(o.model); err != nil {
+				return err
+			}
 		}
 		if len(plan.Traces) == 0 {
 			return fmt.Errorf("no usable trace in the campaign (problems above)")
@@ -205,6 +232,14 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 				if err != nil {
 					return campaign.Record{}, fmt.Errorf("%s: %w", name, err)
 				}
+				if model != nil {
+					v, err := classifier.Screen(model, tr.Values, classifier.ScreenOptions{
+						Interval: intervalSeconds(tr), Features: features.Options{Seed: o.seed}})
+					if err != nil {
+						return campaign.Record{}, fmt.Errorf("%s: verdict: %w", name, err)
+					}
+					rec.Verdict = &campaign.Verdict{Class: v.Class, Classes: v.Classes, Probabilities: v.Probabilities, Model: model.Source}
+				}
 				return rec, nil
 			},
 			func(_ int, _ string, rec campaign.Record) error {
@@ -215,6 +250,7 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		if errors.As(batchErr, &be) {
 			for _, f := range be.failures {
 				leftOut = append(leftOut, "`"+f.Reason+"`")
+				leftOutHTML = append(leftOutHTML, f.Reason)
 			}
 		}
 		if len(rows) == 0 {
@@ -224,6 +260,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		if failed == nil && len(plan.Problems) > 0 {
 			failed = errSomeFailed
 		}
+	}
+	if o.title != "" {
+		source = o.title
 	}
 	campaign.SortRows(rows)
 	for _, out := range []struct {
@@ -275,6 +314,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		{surveyTestsJSONL, func(w io.Writer) error { return campaign.WriteTestsJSONL(w, rep) }},
 		{surveyHistograms, func(w io.Writer) error { return campaign.WriteHistogramsCSV(w, rep) }},
 		{surveySummary, func(w io.Writer) error { return campaign.WriteSummary(w, rep, md) }},
+		{surveyReport, func(w io.Writer) error {
+			return report.WriteCampaign(w, rep, report.CampaignOptions{Source: source, ParamLabel: o.paramLabel, LeftOut: leftOutHTML})
+		}},
 	}
 	for li, lv := range rep.Levels {
 		outs = append(outs, struct {
@@ -300,8 +342,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 	if len(rep.Methods) > 0 {
 		perTrace = fmt.Sprintf(" (per-trace tests in %s)", surveyTestsCSV)
 	}
-	fmt.Fprintf(e.stdout, "surveyed %d traces in %d groups at %d %s; %d campaign-level %s significant%s; wrote %s\n",
-		rep.Traces, len(rep.Groups), len(rep.Levels), plural(len(rep.Levels), "level"), sig, plural(sig, "test"), perTrace, filepath.Join(o.out, surveySummary))
+	fmt.Fprintf(e.stdout, "surveyed %d traces in %d groups at %d %s; %d campaign-level %s significant%s; wrote %s and %s\n",
+		rep.Traces, len(rep.Groups), len(rep.Levels), plural(len(rep.Levels), "level"), sig, plural(sig, "test"), perTrace,
+		filepath.Join(o.out, surveyReport), filepath.Join(o.out, surveySummary))
 	return failed
 }
 
