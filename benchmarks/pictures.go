@@ -8,8 +8,9 @@ import (
 
 	"github.com/tracesift/tracesift/classifier"
 	"github.com/tracesift/tracesift/features/ordinal"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/generators"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 // DegreeResult holds HVG degree distributions of an i.i.d. series, two
@@ -35,7 +36,7 @@ type DegreeSeries struct {
 	Class      string             `json:"class"`
 	MeanDegree Float              `json:"mean_degree"`
 	// Lambda ± LambdaErr is the geometric maximum-likelihood tail rate
-	// (visibility.ExponentialTail) over k ≥ KMin.
+	// (networks.ExponentialTail) over k ≥ KMin.
 	Lambda    Float `json:"lambda"`
 	LambdaErr Float `json:"lambda_err"`
 	KMin      int   `json:"k_min"`
@@ -132,8 +133,8 @@ func runDegrees(o Options) (*DegreeResult, error) {
 			errs[i] = err
 			return
 		}
-		ds := visibility.Degrees(g)
-		tf, err := visibility.ExponentialTail(g, visibility.TailOptions{})
+		ds := networks.Degrees(g)
+		tf, err := networks.ExponentialTail(g, networks.TailOptions{})
 		if err != nil {
 			errs[i] = fmt.Errorf("%s: %w", c.system, err)
 			return

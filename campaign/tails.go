@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks"
 )
 
 // Tail laws (Tail.Law).
@@ -15,8 +15,8 @@ const (
 
 // Tail is the pooled degree distribution of one group at one level with
 // its fitted tail: the HVG degrees with an exponential tail (rate λ,
-// visibility.ExponentialTailCounts) and the NVG degrees with a discrete
-// power law (exponent γ, visibility.PowerLawCounts) — the fits the
+// networks.ExponentialTailCounts) and the NVG degrees with a discrete
+// power law (exponent γ, networks.PowerLawCounts) — the fits the
 // hvg/nvg tail features make on one trace, made here on the nodes of all
 // the group's traces at the level.
 type Tail struct {
@@ -105,15 +105,15 @@ func (a *analysis) tails() {
 				}
 				var err error
 				if t.Law == LawExponential {
-					var f visibility.TailFit
-					f, err = visibility.ExponentialTailCounts(hist, visibility.TailOptions{})
+					var f networks.TailFit
+					f, err = networks.ExponentialTailCounts(hist, networks.TailOptions{})
 					if err == nil {
 						t.Exponent, t.StdErr, t.KMin, t.KS = f.Lambda, f.StdErr, f.KMin, f.KS
 						t.Share = float64(f.NTail) / float64(t.Nodes)
 					}
 				} else {
-					var f visibility.PowerLawFit
-					f, err = visibility.PowerLawCounts(hist, visibility.PowerLawOptions{})
+					var f networks.PowerLawFit
+					f, err = networks.PowerLawCounts(hist, networks.PowerLawOptions{})
 					if err == nil {
 						t.Exponent, t.StdErr, t.KMin, t.KS = f.Gamma, f.StdErr, f.KMin, f.KS
 						t.Share = float64(f.NTail) / float64(t.Nodes)

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks"
 )
 
 // TestVerdictRows: a verdict goes into the table as one row per class
@@ -104,7 +104,7 @@ func TestVerdictRows(t *testing.T) {
 // TestTails: the pooled HVG degree counts of i.i.d.-like traces (each the
 // law P(k) = (1/3)(2/3)^{k−2}, Luque et al., Phys. Rev. E 80 (2009)
 // 046103, rounded to whole nodes) are the sum of the traces' counts, and
-// their fit is visibility.ExponentialTailCounts of that sum, with λ within
+// their fit is networks.ExponentialTailCounts of that sum, with λ within
 // 4 standard errors of ln(3/2). A trace stored as quantiles is scaled to
 // its length and flagged.
 func TestTails(t *testing.T) {
@@ -144,7 +144,7 @@ func TestTails(t *testing.T) {
 		t.Fatalf("tails %+v", rep.Tails)
 	}
 	tl := rep.Tails[0]
-	f, err := visibility.ExponentialTailCounts(want, visibility.TailOptions{})
+	f, err := networks.ExponentialTailCounts(want, networks.TailOptions{})
 	if err != nil {
 		t.Fatal(err)
 	}

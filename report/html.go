@@ -99,6 +99,7 @@ type view struct {
 	DegreesFailures   []string
 	ClustFig, CkFig   *figure
 	ClusteringNote    string
+	NetworkTable      *networkTable
 	PlaneFig          *figure
 	PlaneNote         string
 	RefRows           []refRow
@@ -310,6 +311,9 @@ func (r *Report) viewGraphs(v *view) {
 			parts = append(parts, fmt.Sprintf("NVG mean clustering %s, transitivity %s", h4(n.Clustering.Mean), h4(n.Clustering.Transitivity)))
 		}
 		v.ClusteringNote = strings.Join(parts, "; ") + "."
+	}
+	if r.Networks != nil {
+		v.NetworkTable = r.Networks.table()
 	}
 }
 

@@ -93,6 +93,16 @@ const pageTemplate = `{{template "head" .}}
 {{- else}}
 <p class="failed">Not shown: the visibility graphs could not be built (see section 3).</p>
 {{- end}}
+{{- with .NetworkTable}}
+<h3>One stretch, four networks</h3>
+<p>{{.Note}}</p>
+<table class="compact">
+<tr><th>metric</th>{{range .Head}}<th>{{.}}</th>{{end}}</tr>
+{{- range .Rows}}
+<tr><td>{{.Label}}</td>{{range .Cells}}<td>{{.}}</td>{{end}}</tr>
+{{- end}}
+</table>
+{{- end}}
 </section>
 
 <section id="plane">

@@ -15,9 +15,10 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/tracesift/tracesift/features"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/groups"
 	"github.com/tracesift/tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 func init() { addCommand(newCompareCmd) }
@@ -191,7 +192,7 @@ func runCompare(e *env, o *compareOptions) error {
 			ct := compareTrace{vec: v}
 			if z, err := features.Standardise(tr.Values); err == nil {
 				if g, err := visibility.Horizontal(z, visibility.Options{}); err == nil {
-					ct.clustering = visibility.LocalClustering(g)
+					ct.clustering = networks.LocalClustering(g)
 				}
 				if g, err := visibility.Natural(z, visibility.Options{}); err == nil {
 					ct.degrees = make([]float64, g.Len())

@@ -11,8 +11,8 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/tracesift/tracesift/features"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/networks"
 	"github.com/tracesift/tracesift/trace"
 )
 
@@ -49,7 +49,9 @@ slope), ordinal measures and increment statistics. The trace is standardised
 first, so the units of the file do not matter.
 
 Without --all the core features are printed; --all prints the whole vector
-with each feature's family. A feature that cannot be computed for a trace is
+with each feature's family, followed by the extended families (recurrence
+and ordinal partition networks: rn_*, opn_*), which are measured only on
+request and are not read by the classifier. A feature that cannot be computed for a trace is
 shown as missing ("—" in tables, null in JSON, empty in CSV) with the reason.
 Files are processed in parallel; one bad file is reported and skipped.
 Run 'tracesift features --list' for the catalogue with references.
@@ -64,7 +66,7 @@ depend on --window. Memory, measured on Brownian motion read from CSV:
 0.65 GB at the peak for 2^20 samples, 1.1 GB for 10^7 samples in 10
 windows. --window 0 measures any trace whole: 4.1 GB for those 10^7
 samples, whose natural visibility graph then passes --max-edges (the edge
-budget of each visibility graph, about ` + fmt.Sprint(visibility.BytesPerEdge) + ` bytes per edge at the peak), so
+budget of each visibility graph, about ` + fmt.Sprint(networks.BytesPerEdge) + ` bytes per edge at the peak), so
 its features are missing. With one input file, a progress bar on a
 terminal counts feature families per window.`,
 		Example: `  tracesift features testdata/demo/fresh/D01_fresh_Vg0.60.csv
@@ -90,10 +92,10 @@ terminal counts feature families per window.`,
 	o.in.bind(f, features.MinLength)
 	f.StringVar(&o.format, "format", formatTable, "output format: table, csv, json (JSON Lines, one object per file) or parquet (the CSV table's columns and values; needs -o FILE)")
 	f.StringVarP(&o.out, "output", "o", "-", "output file (- for stdout)")
-	f.BoolVar(&o.all, "all", false, "print the whole feature vector, not only the core features")
+	f.BoolVar(&o.all, "all", false, "print the whole feature vector and the extended families (rn_*, opn_*), not only the core features")
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the randomised estimators (sampled path lengths, 0–1 test frequencies)")
 	f.IntVar(&o.window, "window", features.DefaultWindow, fmt.Sprintf("measure traces longer than this many samples in windows of at most this length (at least %d; 0: measure every trace whole)", 2*features.MinLength))
-	f.Int64Var(&o.maxEdges, "max-edges", visibility.DefaultMaxEdges, fmt.Sprintf("edge budget of each visibility graph: its features are missing past this many edges (about %d bytes each at the peak)", visibility.BytesPerEdge))
+	f.Int64Var(&o.maxEdges, "max-edges", networks.DefaultMaxEdges, fmt.Sprintf("edge budget of each visibility graph: its features are missing past this many edges (about %d bytes each at the peak)", networks.BytesPerEdge))
 	f.Bool("list", false, "list the feature catalogue (name, family, meaning, reference) and exit")
 	return c
 }
@@ -128,7 +130,7 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 	if o.maxEdges < 1 {
 		return usagef("--max-edges %d: want at least 1", o.maxEdges)
 	}
-	fopts := features.Options{Seed: o.seed, Window: window, MaxEdges: o.maxEdges}
+	fopts := features.Options{Seed: o.seed, Window: window, MaxEdges: o.maxEdges, Extended: o.all}
 	if len(files) == 1 {
 		// Within one trace, a bar counting feature families per window
 		// (a batch of files has its own bar, per file).
@@ -143,7 +145,7 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 	}
 	names := coreFeatures
 	if o.all {
-		names = features.Names()
+		names = features.AllNames()
 	}
 	fill := func(w io.Writer) error {
 		bw := bufio.NewWriter(w)
@@ -240,7 +242,7 @@ func index(v features.Vector, name string) int {
 // featureReason is why feature i of v is missing ("" when present), with a
 // visibility graph past its edge budget explained in terms of the flags.
 func featureReason(v features.Vector, i int) string {
-	var eb *visibility.EdgeBudgetError
+	var eb *networks.EdgeBudgetError
 	if v.Reasons[i] == "" || !errors.As(v.Causes[i], &eb) {
 		return v.Reasons[i]
 	}
@@ -341,9 +343,13 @@ func writeCatalogue(e *env) error {
 	for _, en := range features.Catalogue() {
 		t.row(en.Name, string(en.Family), en.Description, en.Reference)
 	}
+	for _, en := range features.Extended() {
+		t.row(en.Name, string(en.Family)+" (extended)", en.Description, en.Reference)
+	}
 	if err := t.flush(); err != nil {
 		return err
 	}
-	fmt.Fprintf(e.stdout, "\nschema v%d, hash %s, %d features\n", features.SchemaVersion, features.SchemaHash(), len(features.Catalogue()))
+	fmt.Fprintf(e.stdout, "\nschema v%d, hash %s, %d features; %d more in extended families (measured with --all or by name, not read by the classifier)\n",
+		features.SchemaVersion, features.SchemaHash(), len(features.Catalogue()), len(features.Extended()))
 	return nil
 }
