@@ -104,7 +104,7 @@ func batch[R any](e *env, what string, inputs []string, work func(i int, name st
 	for i := range slots {
 		slots[i].done = make(chan struct{})
 	}
-	progress := newProgress(e, len(inputs), what)
+	progress := startProgress(e, len(inputs), what, what)
 	sem := make(chan struct{}, max(1, runtime.GOMAXPROCS(0)))
 	var wg sync.WaitGroup
 	go func() {
@@ -123,13 +123,9 @@ func batch[R any](e *env, what string, inputs []string, work func(i int, name st
 	var emitErr error
 	for i, name := range inputs {
 		<-slots[i].done
-		if progress != nil {
-			progress(i+1, len(inputs))
-		}
+		progress.step(slots[i].err != nil)
 		if slots[i].err != nil {
-			reason := oneLine(slots[i].err.Error())
-			failures = append(failures, batchFailure{Name: name, Reason: reason})
-			fmt.Fprintf(e.stderr, "tracesift: %s\n", reason)
+			failures = append(failures, batchFailure{Name: name, Reason: oneLine(slots[i].err.Error())})
 			continue
 		}
 		if emitErr == nil {
@@ -137,18 +133,11 @@ func batch[R any](e *env, what string, inputs []string, work func(i int, name st
 		}
 	}
 	wg.Wait()
+	progress.finish()
 	if emitErr != nil {
 		return emitErr
 	}
-	if len(failures) > 0 {
-		if len(failures) == len(inputs) && len(inputs) > 1 {
-			fmt.Fprintf(e.stderr, "tracesift: all %d inputs failed\n", len(failures))
-		} else if len(inputs) > 1 {
-			fmt.Fprintf(e.stderr, "tracesift: %d of %d inputs failed\n", len(failures), len(inputs))
-		}
-		return &batchError{total: len(inputs), failures: failures}
-	}
-	return nil
+	return reportFailures(e, failures, len(inputs))
 }
 
 // readTrace reads one input with the shared options; "-" is stdin. A trace
