@@ -4,7 +4,9 @@
 # (examples/slurm/) by hand. Debian 12 packages slurm-wlm (22.05) and
 # munge; run as root, no systemd needed.
 #
-#   scripts/slurm-local.sh install     apt-get update, then install slurm-wlm and munge
+#   scripts/slurm-local.sh install [--no-update]
+#                                      apt-get update (unless --no-update), then install
+#                                      slurm-wlm and munge
 #   scripts/slurm-local.sh start DIR   munge key and munged, DIR/slurm.conf, slurmctld, slurmd;
 #                                      waits until the node is idle
 #   scripts/slurm-local.sh stop DIR    stops what start started, by the PIDs in its pid files
@@ -20,7 +22,7 @@
 set -eu
 
 usage() {
-	echo "usage: $0 install | start DIR | stop DIR | env DIR" >&2
+	echo "usage: $0 install [--no-update] | start DIR | stop DIR | env DIR" >&2
 	exit 2
 }
 
@@ -37,15 +39,12 @@ munge_ok() {
 	command -v munge >/dev/null 2>&1 && munge -n 2>/dev/null | unmunge 2>/dev/null | grep -q 'STATUS: *Success'
 }
 
-# pid_alive FILE: the PID in FILE names a running process.
-pid_alive() {
-	[ -s "$1" ] && kill -0 "$(cat "$1")" 2>/dev/null
-}
-
 install_packages() {
 	need_root install
 	export DEBIAN_FRONTEND=noninteractive
-	apt-get update
+	if [ "${1:-}" != "--no-update" ]; then
+		apt-get update
+	fi
 	apt-get install -y --no-install-recommends slurm-wlm munge
 }
 
@@ -130,10 +129,11 @@ EOF
 stop_cluster() {
 	# 5. by the PIDs in the pid files, never by name.
 	for f in "$dir/slurmd.pid" "$dir/slurmctld.pid" "$dir/munged.pid"; do
-		if pid_alive "$f"; then
-			kill "$(cat "$f")"
+		pid=$(cat "$f" 2>/dev/null || true)
+		if [ -n "$pid" ] && kill -0 "$pid" 2>/dev/null; then
+			kill "$pid"
 			i=0
-			while pid_alive "$f" && [ "$i" -lt 100 ]; do
+			while kill -0 "$pid" 2>/dev/null && [ "$i" -lt 100 ]; do
 				i=$((i + 1))
 				sleep 0.1
 			done
@@ -147,7 +147,7 @@ stop_cluster() {
 cmd=$1
 shift
 case $cmd in
-install) install_packages ;;
+install) install_packages "$@" ;;
 start | stop | env)
 	[ $# -eq 1 ] || usage
 	mkdir -p "$1"

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -91,7 +92,14 @@ func (o *sourceOptions) collect(e *env, args []string) ([]filelist.Entry, error)
 		if len(args)+len(o.filesFrom)+len(o.campaign) == 0 {
 			return nil, usagef("no input files")
 		}
-		return nil, fmt.Errorf("no trace files found in the inputs given")
+		filter := ""
+		if len(o.include) > 0 {
+			filter = " matching --include " + strings.Join(o.include, ", ")
+		}
+		if len(args) == 1 && len(o.filesFrom)+len(o.campaign) == 0 {
+			return nil, fmt.Errorf("directory %s holds no trace files%s", args[0], filter)
+		}
+		return nil, fmt.Errorf("no trace files%s in %s", filter, strings.Join(append(append(slices.Clone(args), o.filesFrom...), o.campaign...), ", "))
 	}
 	return list, nil
 }

@@ -232,7 +232,7 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		} else if batchErr != nil {
 			return batchErr
 		}
-		if len(rows) == 0 {
+		if len(rows) == 0 && len(run.inputs) > 0 {
 			return fmt.Errorf("no trace could be measured (errors above)")
 		}
 		failed = batchErr
@@ -452,9 +452,6 @@ func (o *surveyOptions) measureRun(e *env, plan campaign.Plan, mo campaign.Measu
 		}
 	}
 	run.announce(e, len(all))
-	if len(run.inputs) == 0 {
-		return nil, nil, fmt.Errorf("shard %s holds none of the campaign's %d traces; nothing to do", sh, len(all))
-	}
 	methods := make([]string, len(mo.Methods))
 	for i, m := range mo.Methods {
 		methods[i] = string(m)

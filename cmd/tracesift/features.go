@@ -290,9 +290,6 @@ func newTraceRun(e *env, command string, args []string, src *sourceOptions, so *
 	}
 	run := &batchRun{command: command, inputs: entriesToInputs(sh.take(list)), shard: sh, journal: jpath, resume: jo.resume}
 	run.announce(e, len(list))
-	if len(run.inputs) == 0 {
-		return nil, fmt.Errorf("shard %s holds none of the %d traces; nothing to do", sh, len(list))
-	}
 	return run, nil
 }
 
