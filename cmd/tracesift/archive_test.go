@@ -480,7 +480,7 @@ func TestKilledRunResumes(t *testing.T) {
 	if _, err := os.Stat(out); err == nil {
 		t.Fatal("the killed run left an output file")
 	}
-	b := readFile(t, out + ".journal")
+	b := readFile(t, out+".journal")
 	if bytes.Contains(b, []byte(`{"end":`)) {
 		t.Fatal("the run finished before it was killed; make the batch longer")
 	}
