@@ -503,3 +503,29 @@ func TestKilledRunResumes(t *testing.T) {
 		t.Error("killed and resumed output differs from the uninterrupted run")
 	}
 }
+
+// compare takes the same sources per group: a directory walked
+// recursively and filtered by --include, and @LIST.
+func TestCompareGroupSources(t *testing.T) {
+	dir := t.TempDir()
+	a := filepath.Join(dir, "a")
+	os.MkdirAll(filepath.Join(a, "sub", "deeper"), 0o755)
+	for i, p := range []string{"w1.csv", filepath.Join("sub", "w2.csv"), filepath.Join("sub", "deeper", "w3.csv")} {
+		writeSeries(t, a, p, "white", "--n", "600", "--seed", fmt.Sprint(i+1))
+	}
+	fixture(t, a, "notes.txt", []byte("not a trace\n"))
+	var b []string
+	for i := range 3 {
+		b = append(b, writeSeries(t, dir, fmt.Sprintf("r%d.csv", i), "ar1", "--n", "600", "--seed", fmt.Sprint(i+5)))
+	}
+	list := writeList(t, filepath.Join(dir, "b.txt"), append(b, b[0]))
+	out := filepath.Join(dir, "cmp")
+	stdout, stderr, code := runCLI(t, "", "compare", "--group", "a="+a, "--group", "b=@"+list, "--include", "*.csv", "-o", out)
+	if code != exitOK || !strings.Contains(stdout, "compared 6 traces in 2 groups") {
+		t.Errorf("exit %d, stdout %q, stderr %q", code, stdout, stderr)
+	}
+	_, stderr, code = runCLI(t, "", "compare", "--group", "a="+a, "--group", "b="+dir+"/none", "--include", "*.csv")
+	if code != exitPartial || !strings.Contains(stderr, "none: no such file or directory") {
+		t.Errorf("missing group path: exit %d, %q", code, stderr)
+	}
+}

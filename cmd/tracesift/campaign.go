@@ -105,11 +105,23 @@ one Markdown page per level and a PNG per metric (figures/). --tables-only stops
 campaign on several machines, concatenate their traces.csv and give them to
 --from for the statistics, which are then exactly those of one run.
 
+Every trace's rows are appended to DIR/traces.journal the moment the trace
+is measured (a failure as its file, line and reason); --resume skips the
+traces the journal holds with the same file checksum, campaign row and
+options. With --tables-only, --shard K/N measures the traces whose path
+(as the description writes it) hashes to shard K of N (inside a Slurm job array or a Kubernetes
+indexed Job the shard comes from the scheduler; see 'tracesift features
+--help'); 'tracesift collate DIR0 DIR1 ...' joins the shards' journals into
+the traces.csv of one run, naming missing and duplicated traces, for
+--from.
+
 ` + caution,
 		Example: `  tracesift survey testdata/demo/campaign.csv -o survey-out
   tracesift survey --match '(?P<device>D\d+)_(?P<group>fresh|stressed)_Vg(?P<bias_V>[0-9.]+)' testdata/demo -o survey-out
   tracesift survey part1.csv --tables-only -o part1 && tracesift survey part2.csv --tables-only -o part2
-  tracesift survey --from part1/traces.csv --from part2/traces.csv -o merged`,
+  tracesift survey --from part1/traces.csv --from part2/traces.csv -o merged
+  tracesift survey testdata/demo/campaign.csv --tables-only --shard 1/4 -o shard1   # shards 0/4 … 3/4
+  tracesift collate shard0 shard1 shard2 shard3 -o traces.csv && tracesift survey --from traces.csv -o merged`,
 		RunE: func(c *cobra.Command, args []string) error {
 			return runSurvey(e, &o, args)
 		},
@@ -473,4 +485,10 @@ func (o *surveyOptions) measureRun(e *env, plan campaign.Plan, mo campaign.Measu
 // table.
 type surveyRender struct {
 	Format string `json:"format"`
+}
+
+func (sr *surveyRender) formats() []string  { return []string{formatCSV, formatJSON} }
+func (sr *surveyRender) setFormat(f string) { sr.Format = f }
+func (sr *surveyRender) sink(w io.Writer) rawSink {
+	return &surveyTableSink{w: w, format: sr.Format}
 }

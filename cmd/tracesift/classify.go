@@ -197,7 +197,7 @@ func runClassify(e *env, args []string, o *classifyOptions) error {
 		Alpha        float64       `json:"alpha"`
 		Schema       string        `json:"schema"`
 	}{o.in.traceOptions(), modelSum, o.seed, o.drivers, o.significance, o.surrogates, o.alpha, features.SchemaHash()}
-	render := classifyRender{Format: o.format, Model: m.Source, Classes: m.Classes,
+	render := &classifyRender{Format: o.format, Model: m.Source, Classes: m.Classes,
 		Significance: o.significance, Surrogates: o.surrogates, Alpha: o.alpha, Seed: o.seed}
 	run.key, run.options, run.render = batchKey("classify", options), options, render
 	return run.run(e, o.out,
@@ -223,7 +223,7 @@ func runClassify(e *env, args []string, o *classifyOptions) error {
 			}
 			return classifyJSON(name, r), nil
 		},
-		func(w io.Writer) rawSink { return newClassifySink(w, render) })
+		render.sink)
 }
 
 // classifyRender are the options of the output table, kept in the journal
@@ -237,6 +237,10 @@ type classifyRender struct {
 	Alpha        float64  `json:"alpha"`
 	Seed         uint64   `json:"seed"`
 }
+
+func (cr *classifyRender) formats() []string        { return []string{formatTable, formatJSON} }
+func (cr *classifyRender) setFormat(f string)       { cr.Format = f }
+func (cr *classifyRender) sink(w io.Writer) rawSink { return newClassifySink(w, *cr) }
 
 // classifySink writes verdicts: JSON Lines as they come, or the table
 // (which aligns its columns over every row) at the end. The journal keeps

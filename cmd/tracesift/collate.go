@@ -63,48 +63,19 @@ failed; the table is still written with what there is.`,
 	return c
 }
 
-// collators make the output sink of a command's journals from the render
-// options its runs stored.
-var collators = map[string]func(render json.RawMessage, format string, w io.Writer) (rawSink, error){
-	"features": func(render json.RawMessage, format string, w io.Writer) (rawSink, error) {
-		var fr featuresRender
-		if err := json.Unmarshal(render, &fr); err != nil {
-			return nil, err
-		}
-		if format != "" {
-			if err := checkFormat(format, formatTable, formatCSV, formatJSON); err != nil {
-				return nil, err
-			}
-			fr.Format = format
-		}
-		return newFeaturesSink(w, fr), nil
-	},
-	"classify": func(render json.RawMessage, format string, w io.Writer) (rawSink, error) {
-		var cr classifyRender
-		if err := json.Unmarshal(render, &cr); err != nil {
-			return nil, err
-		}
-		if format != "" {
-			if err := checkFormat(format, formatTable, formatJSON); err != nil {
-				return nil, err
-			}
-			cr.Format = format
-		}
-		return newClassifySink(w, cr), nil
-	},
-	"survey": func(render json.RawMessage, format string, w io.Writer) (rawSink, error) {
-		var sr surveyRender
-		if err := json.Unmarshal(render, &sr); err != nil {
-			return nil, err
-		}
-		if format != "" {
-			if err := checkFormat(format, formatCSV, formatJSON); err != nil {
-				return nil, err
-			}
-			sr.Format = format
-		}
-		return &surveyTableSink{w: w, format: sr.Format}, nil
-	},
+// renderSpec is the output of a journalled command as its journal's header
+// stores it: the format and what else the table needs.
+type renderSpec interface {
+	formats() []string
+	setFormat(string)
+	sink(w io.Writer) rawSink
+}
+
+// collators give, per command, the render options its journals store.
+var collators = map[string]func() renderSpec{
+	"features": func() renderSpec { return &featuresRender{} },
+	"classify": func() renderSpec { return &classifyRender{} },
+	"survey":   func() renderSpec { return &surveyRender{} },
 }
 
 // journalPath finds the journal an argument stands for.
@@ -157,7 +128,7 @@ func runCollate(e *env, args []string, o *collateOptions) error {
 		}
 	}
 	first := js[0].ix.Last
-	newSink, ok := collators[first.Command]
+	newSpec, ok := collators[first.Command]
 	if !ok {
 		return fmt.Errorf("journal %s: collate cannot join %q runs", js[0].path, first.Command)
 	}
@@ -186,13 +157,16 @@ func runCollate(e *env, args []string, o *collateOptions) error {
 	for _, j := range js {
 		have[j.k]++
 	}
+	absent, unfinished := 0, 0
 	for k, c := range have {
 		if c == 0 {
+			absent++
 			report("shard %d/%d: no journal given (its traces are missing)", k, n)
 		}
 	}
 	for _, j := range js {
 		if !j.ix.Ended {
+			unfinished++
 			report("journal %s: its last run did not finish (killed?); run that shard again with --resume", j.path)
 		}
 	}
@@ -239,11 +213,18 @@ func runCollate(e *env, args []string, o *collateOptions) error {
 		picks = append(picks, *p)
 	}
 
-	err := writeOutput(e, o.out, func(w io.Writer) error {
-		s, err := newSink(first.Render, o.format, w)
-		if err != nil {
+	spec := newSpec()
+	if err := json.Unmarshal(first.Render, spec); err != nil {
+		return fmt.Errorf("journal %s: output options: %w", js[0].path, err)
+	}
+	if o.format != "" {
+		if err := checkFormat(o.format, spec.formats()...); err != nil {
 			return err
 		}
+		spec.setFormat(o.format)
+	}
+	err := writeOutput(e, o.out, func(w io.Writer) error {
+		s := spec.sink(w)
 		var failures []batchFailure
 		for _, p := range picks {
 			if p.en.Failure != nil {
@@ -268,8 +249,9 @@ func runCollate(e *env, args []string, o *collateOptions) error {
 		return err
 	}
 	if problems > 0 {
-		fmt.Fprintf(e.stderr, "tracesift: collated %d traces from %d %s of %d %s: %d missing, %d duplicated\n",
-			len(picks), len(js), plural(len(js), "journal"), n, plural(n, "shard"), missing, duplicated)
+		fmt.Fprintf(e.stderr, "tracesift: collated %d traces from %d %s of %d %s: %d missing, %d duplicated, %d %s without a journal, %d unfinished %s\n",
+			len(picks), len(js), plural(len(js), "journal"), n, plural(n, "shard"), missing, duplicated,
+			absent, plural(absent, "shard"), unfinished, plural(unfinished, "run"))
 		return errSomeFailed
 	}
 	return err

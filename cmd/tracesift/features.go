@@ -173,6 +173,10 @@ type featuresRender struct {
 	All    bool   `json:"all"`
 }
 
+func (fr *featuresRender) formats() []string        { return []string{formatTable, formatCSV, formatJSON} }
+func (fr *featuresRender) setFormat(f string)       { fr.Format = f }
+func (fr *featuresRender) sink(w io.Writer) rawSink { return newFeaturesSink(w, *fr) }
+
 func (fr featuresRender) names() []string {
 	if fr.All {
 		return features.Names()
@@ -253,7 +257,7 @@ func runFeatures(e *env, args []string, o *featuresOptions) error {
 		MaxEdges int64         `json:"max_edges"`
 		Schema   string        `json:"schema"`
 	}{o.in.traceOptions(), o.seed, window, o.maxEdges, features.SchemaHash()}
-	render := featuresRender{Format: o.format, All: o.all}
+	render := &featuresRender{Format: o.format, All: o.all}
 	run.key, run.options, run.render = batchKey("features", options), options, render
 	return run.run(e, o.out,
 		func(e *env, i int) (any, error) {
@@ -267,7 +271,7 @@ func runFeatures(e *env, args []string, o *featuresOptions) error {
 			}
 			return newFeaturesRecord(tr, v), nil
 		},
-		func(w io.Writer) rawSink { return newFeaturesSink(w, render) })
+		render.sink)
 }
 
 // newTraceRun gathers the inputs of a batch command over trace files,

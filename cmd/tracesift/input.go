@@ -90,10 +90,11 @@ func (b *batchError) succeeded() int { return b.total - len(b.failures) }
 
 // batch runs work on each input in parallel (at most GOMAXPROCS at once)
 // and hands the results to emit in input order, so output is deterministic.
-// An input whose work fails is reported on stderr as one line and skipped;
-// the others go on. batch returns a *batchError (errSomeFailed) when any
-// input failed. what names the inputs in the progress bar drawn on a
-// terminal ("traces").
+// An input whose work fails is skipped and the others go on; at the end
+// each failure is reported on stderr as one line, in input order, with the
+// count. batch returns a *batchError (errSomeFailed) when any input failed.
+// what names the inputs in the progress display ("traces"). Commands whose
+// results should survive a kill go through a batchRun (journalled.go).
 func batch[R any](e *env, what string, inputs []string, work func(i int, name string) (R, error), emit func(i int, name string, r R) error) error {
 	type slot struct {
 		r    R
