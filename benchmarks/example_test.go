@@ -13,7 +13,7 @@ func ExampleRun() {
 	r, err := benchmarks.Run(nil, benchmarks.Options{
 		Seed:               1,
 		Seeds:              2,
-		Invariants:         []string{"perm_missing_d3/logistic", "hvg_mean_degree/white"},
+		Invariants:         []string{"perm_missing_d3/logistic", "hv_deg_mean/white"},
 		SkipClassification: true,
 		SkipHoldout:        true,
 		SkipPictures:       true,
@@ -27,6 +27,6 @@ func ExampleRun() {
 		fmt.Printf("%s: published %s; %d runs; within tolerance: %v\n", row.ID, row.Published, len(row.Runs), row.Within)
 	}
 	// Output:
-	// hvg_mean_degree/white: published 4; 2 runs; within tolerance: true
+	// hv_deg_mean/white: published 4; 2 runs; within tolerance: true
 	// perm_missing_d3/logistic: published 1; 2 runs; within tolerance: true
 }

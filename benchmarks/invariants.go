@@ -18,7 +18,7 @@ import (
 // InvariantRow is the recovery of one published or analytic invariant of a
 // reference system by one of the project's estimators.
 type InvariantRow struct {
-	// ID names the check, e.g. "lyap_max/lorenz" or "dfa_alpha/fgn@h=0.3".
+	// ID names the check, e.g. "nl_div_rate/lorenz" or "sc_fluct_a1/fgn@h=0.3".
 	ID string `json:"id"`
 	// System is the generators registry name; Params its full parameter
 	// set (defaults with the check's overrides).
@@ -348,29 +348,29 @@ func invariantSpecs() ([]invariantSpec, error) {
 		{"lorenz", 20000, 0.15, tolLyapFlow, ""},
 		{"rossler", 20000, 0.15, tolLyapFlowB, "the Rössler exponent is small (≈0.007 per sample at dt = 0.1), so the divergence curve is long and shallow; the estimate rises slowly with n"},
 	} {
-		fromRegistry(invariantSpec{id: "lyap_max/" + c.system, system: c.system, name: "lyap_max", estimator: lyapEst,
+		fromRegistry(invariantSpec{id: "nl_div_rate/" + c.system, system: c.system, name: "nl_div_rate", estimator: lyapEst,
 			check: CheckValue, relative: true, tol: fixedTol(c.rel), tolSource: c.tolSrc, n: c.n, measure: measureLyapunov, note: c.flowDoc})
 	}
-	fromRegistry(invariantSpec{id: "lyap_max/van-der-pol", system: "van-der-pol", name: "lyap_max", estimator: lyapEst,
+	fromRegistry(invariantSpec{id: "nl_div_rate/van-der-pol", system: "van-der-pol", name: "nl_div_rate", estimator: lyapEst,
 		check: CheckAbsent, tolSource: tolAbsent, n: 20000, measure: measureLyapunov,
 		note: "λ1 = 0 on the limit cycle: the estimator must find no exponential divergence to fit"})
 
 	d2Est := "nonlinear.CorrelationDimension (Grassberger–Procaccia; defaults)"
-	fromRegistry(invariantSpec{id: "corr_dim/henon", system: "henon", name: "corr_dim", estimator: d2Est, check: CheckValue,
+	fromRegistry(invariantSpec{id: "nl_gp_dim/henon", system: "henon", name: "nl_gp_dim", estimator: d2Est, check: CheckValue,
 		tol: fixedTol(0.1), tolSource: tolD2, n: 10000, measure: measureCorrDim,
 		note: "the published uncertainty is ± 0.01; the tolerance is the project test's"})
-	fromRegistry(invariantSpec{id: "corr_dim/lorenz", system: "lorenz", name: "corr_dim", estimator: d2Est, check: CheckValue,
+	fromRegistry(invariantSpec{id: "nl_gp_dim/lorenz", system: "lorenz", name: "nl_gp_dim", estimator: d2Est, check: CheckValue,
 		tol: fixedTol(0.15), tolSource: tolD2, n: 20000, measure: measureCorrDim,
 		note: "the published uncertainty is ± 0.01; the tolerance is the project test's"})
 
 	const n14 = 1 << 14
 	dfaEst := "scaling.DFA (order 1, 20 log-spaced windows from the default minimum to n/4)"
-	fromRegistry(invariantSpec{id: "dfa_alpha/white", system: "white", name: "dfa_alpha", estimator: dfaEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "sc_fluct_a1/white", system: "white", name: "sc_fluct_a1", estimator: dfaEst, check: CheckValue,
 		tol: fixedTol(0.05), tolSource: tolDFA, n: n14, measure: measureDFA})
-	fromRegistry(invariantSpec{id: "dfa_alpha/brownian", system: "brownian", name: "dfa_alpha", estimator: dfaEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "sc_fluct_a1/brownian", system: "brownian", name: "sc_fluct_a1", estimator: dfaEst, check: CheckValue,
 		tol: fixedTol(0.05), tolSource: tolDFA, n: n14, measure: measureDFA})
 	for _, h := range []float64{0.3, 0.5, 0.7, 0.9} {
-		s := invariantSpec{id: fmt.Sprintf("dfa_alpha/fgn@h=%g", h), system: "fgn", params: map[string]float64{"h": h}, name: "dfa_alpha",
+		s := invariantSpec{id: fmt.Sprintf("sc_fluct_a1/fgn@h=%g", h), system: "fgn", params: map[string]float64{"h": h}, name: "sc_fluct_a1",
 			estimator: dfaEst, check: CheckValue, tol: fixedTol(0.05), tolSource: tolDFA, n: n14, measure: measureDFA}
 		if h == 0.7 {
 			fromRegistry(s)
@@ -379,24 +379,24 @@ func invariantSpecs() ([]invariantSpec, error) {
 		s.value, s.source = h, "Peng et al., Phys. Rev. E 49 (1994) 1685: α = H for fGn"
 		direct(s)
 	}
-	fromRegistry(invariantSpec{id: "dfa_alpha/fbm", system: "fbm", name: "dfa_alpha", estimator: dfaEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "sc_fluct_a1/fbm", system: "fbm", name: "sc_fluct_a1", estimator: dfaEst, check: CheckValue,
 		tol: fixedTol(0.05), tolSource: tolDFAB, n: n14, measure: measureDFA})
 
 	rsEst := "scaling.RescaledRange (Anis–Lloyd correction, blocks 50..n/4)"
 	for _, h := range []float64{0.3, 0.5, 0.7, 0.9} {
-		direct(invariantSpec{id: fmt.Sprintf("hurst_rs/fgn@h=%g", h), system: "fgn", params: map[string]float64{"h": h}, name: "hurst_rs",
+		direct(invariantSpec{id: fmt.Sprintf("sc_range_h/fgn@h=%g", h), system: "fgn", params: map[string]float64{"h": h}, name: "sc_range_h",
 			estimator: rsEst, value: h, source: "Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111 (confirmed: neuropsychology/NeuroKit neurokit2/complexity/fractal_hurst.py): H with small-sample correction",
 			check: CheckValue, tol: fixedTol(0.1), tolSource: tolRS, n: n14, measure: measureRS,
 			note: "R/S is known to underestimate strongly persistent noise"})
 	}
 
 	specEst := "scaling.SpectralSlope (Welch, Hann, band 2/segment..0.25 cycles/sample)"
-	fromRegistry(invariantSpec{id: "spectral_beta/white", system: "white", name: "spectral_beta", estimator: specEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "sc_psd_beta/white", system: "white", name: "sc_psd_beta", estimator: specEst, check: CheckValue,
 		tol: fixedTol(0.05), tolSource: tolSpecWB, n: n14, measure: measureSpectral})
-	fromRegistry(invariantSpec{id: "spectral_beta/brownian", system: "brownian", name: "spectral_beta", estimator: specEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "sc_psd_beta/brownian", system: "brownian", name: "sc_psd_beta", estimator: specEst, check: CheckValue,
 		tol: fixedTol(0.05), tolSource: tolSpecWB, n: n14, measure: measureSpectral})
 	for _, h := range []float64{0.3, 0.5, 0.7, 0.9} {
-		s := invariantSpec{id: fmt.Sprintf("spectral_beta/fgn@h=%g", h), system: "fgn", params: map[string]float64{"h": h}, name: "spectral_beta",
+		s := invariantSpec{id: fmt.Sprintf("sc_psd_beta/fgn@h=%g", h), system: "fgn", params: map[string]float64{"h": h}, name: "sc_psd_beta",
 			estimator: specEst, check: CheckValue, tol: fixedTol(0.07), tolSource: tolSpecFGN, n: n14, measure: measureSpectral}
 		if h == 0.7 {
 			fromRegistry(s)
@@ -405,11 +405,11 @@ func invariantSpecs() ([]invariantSpec, error) {
 		s.value, s.source = 2*h-1, "standard result: fGn spectrum ~ f^-(2H-1)"
 		direct(s)
 	}
-	fromRegistry(invariantSpec{id: "spectral_beta/fbm", system: "fbm", name: "spectral_beta", estimator: specEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "sc_psd_beta/fbm", system: "fbm", name: "sc_psd_beta", estimator: specEst, check: CheckValue,
 		tol: fixedTol(0.07), tolSource: tolSpecFBM, n: n14, measure: measureSpectral})
-	fromRegistry(invariantSpec{id: "spectral_beta/powerlaw", system: "powerlaw", name: "spectral_beta", estimator: specEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "sc_psd_beta/powerlaw", system: "powerlaw", name: "sc_psd_beta", estimator: specEst, check: CheckValue,
 		tol: fixedTol(0.05), tolSource: tolSpecPL, n: n14, measure: measureSpectral})
-	fromRegistry(invariantSpec{id: "spectral_beta/telegraph-sum", system: "telegraph-sum", name: "spectral_beta", estimator: specEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "sc_psd_beta/telegraph-sum", system: "telegraph-sum", name: "sc_psd_beta", estimator: specEst, check: CheckValue,
 		tol: fixedTol(0.15), tolSource: tolSpecTS, n: n14, measure: measureSpectral})
 
 	const nHVG = 100000
@@ -418,34 +418,34 @@ func invariantSpecs() ([]invariantSpec, error) {
 	}
 	hvgEst := "visibility.Horizontal + visibility.Degrees (mean degree)"
 	for _, sys := range []string{"white", "student-t", "stable", "iid"} {
-		fromRegistry(invariantSpec{id: "hvg_mean_degree/" + sys, system: sys, name: "hvg_mean_degree", estimator: hvgEst, check: CheckValue,
+		fromRegistry(invariantSpec{id: "hv_deg_mean/" + sys, system: sys, name: "hv_deg_mean", estimator: hvgEst, check: CheckValue,
 			tol: hvgMeanTol, tolSource: tolHVGMean, n: nHVG, measure: measureHVGMeanDegree})
 	}
-	fromRegistry(invariantSpec{id: "hvg_mean_degree/sine", system: "sine", name: "hvg_mean_degree", estimator: hvgEst, check: CheckValue,
+	fromRegistry(invariantSpec{id: "hv_deg_mean/sine", system: "sine", name: "hv_deg_mean", estimator: hvgEst, check: CheckValue,
 		tol: fixedTol(0.01), tolSource: tolHVGSine, n: nHVG, measure: measureHVGMeanDegree,
 		note: "the formula holds for an exactly periodic series; sin(2πt/T + φ) evaluated in floating point repeats only up to rounding, and the horizontal criterion resolves those ties, which raises ⟨k⟩ towards 4"})
 	lambdaEst := "visibility.Horizontal + visibility.ExponentialTail (geometric MLE, KS-chosen k_min)"
 	for _, sys := range []string{"white", "student-t"} {
-		fromRegistry(invariantSpec{id: "hvg_lambda/" + sys, system: sys, name: "hvg_lambda", estimator: lambdaEst, check: CheckValue,
+		fromRegistry(invariantSpec{id: "hv_tail_exprate/" + sys, system: sys, name: "hv_tail_exprate", estimator: lambdaEst, check: CheckValue,
 			tol: func(_ int, se float64) float64 { return 4 * se }, tolSource: tolHVGLambda, n: nHVG, measure: measureHVGLambda})
 	}
 
 	nvgEst := "visibility.Natural + visibility.PowerLaw (discrete MLE, KS-chosen k_min)"
 	for _, h := range []float64{0.5, 0.7} {
-		direct(invariantSpec{id: fmt.Sprintf("nvg_gamma/fbm@h=%g", h), system: "fbm", params: map[string]float64{"h": h}, name: "nvg_gamma",
+		direct(invariantSpec{id: fmt.Sprintf("nv_tail_powexp/fbm@h=%g", h), system: "fbm", params: map[string]float64{"h": h}, name: "nv_tail_powexp",
 			estimator: nvgEst, value: 3 - 2*h, source: "Lacasa et al., EPL 86 (2009) 30001 (memory): γ = 3 − 2H",
 			check: CheckValue, tol: fixedTol(0.25), tolSource: tolNVG, n: 1 << 16, measure: measureNVGGamma,
 			note: "finite size: at n = 2^16 the KS-chosen tail reaches the degree cutoff (the visibility tests measured 2.17 at 2^16, 2.00 at 2^18 for H = 0.5); H = 0.3 is left out because our fBm NVGs show no power law there"})
 	}
 
 	const n15 = 1 << 15
-	peEst := "ordinal.Entropy (order 4, delay 1, as the perm_entropy feature)"
+	peEst := "ordinal.Entropy (order 4, delay 1, as the op_ent_d4 feature)"
 	for _, sys := range []string{"white", "student-t", "stable", "iid"} {
-		fromRegistry(invariantSpec{id: "perm_entropy/" + sys, system: sys, name: "perm_entropy", estimator: peEst, check: CheckValue,
+		fromRegistry(invariantSpec{id: "op_ent_d4/" + sys, system: sys, name: "op_ent_d4", estimator: peEst, check: CheckValue,
 			tol: func(n int, _ float64) float64 { return 2 * permBiasIID(4, n) }, tolSource: tolPE, n: n15, measure: measurePermEntropy})
 	}
-	direct(invariantSpec{id: "stat_complexity/white", system: "white", name: "stat_complexity",
-		estimator: "ordinal.Complexity (order 4, delay 1, as the stat_complexity feature)", value: 0,
+	direct(invariantSpec{id: "op_jsc_d4/white", system: "white", name: "op_jsc_d4",
+		estimator: "ordinal.Complexity (order 4, delay 1, as the op_jsc_d4 feature)", value: 0,
 		source: "Rosso et al., Phys. Rev. Lett. 99 (2007) 154102: i.i.d. ⇒ 0", check: CheckValue,
 		tol: func(n int, _ float64) float64 {
 			return ordinal.Q0(24) * math.Log(24) * 2 * permBiasIID(4, n) / 4
@@ -455,7 +455,7 @@ func invariantSpecs() ([]invariantSpec, error) {
 		source: "Amigó, Zambrano & Sanjuán, EPL 79 (2007) 50001: x_t > x_{t+1} > x_{t+2} never occurs at r = 4", check: CheckValue,
 		tol: fixedTol(0), tolSource: tolForbidden, n: 5000, measure: measureMissingTriples})
 
-	fromRegistry(invariantSpec{id: "sample_entropy/white", system: "white", name: "sample_entropy",
+	fromRegistry(invariantSpec{id: "nl_sent_m2/white", system: "white", name: "nl_sent_m2",
 		estimator: "nonlinear.SampleEntropy (m = 2, r = 0.2 sd)", check: CheckValue,
 		tol: fixedTol(0.015), tolSource: tolSampEn, n: 20000, measure: measureSampEn})
 
@@ -486,10 +486,10 @@ var skipReasons = map[string]string{
 	"stationary_density":       "a density, not a number: checked by a Kolmogorov–Smirnov test against the Boltzmann law in the generators tests",
 	"mean":                     "a moment of the generator, not a feature: checked in the generators tests",
 	"variance":                 "a moment of the generator, not a feature: checked in the generators tests",
-	"lyap_max":                 "the series estimator is checked here on the systems listed above; the exponents of the other systems are checked against their own equations (Benettin's tangent-space method) in the generators tests",
+	"nl_div_rate":              "the series estimator is checked here on the systems listed above; the exponents of the other systems are checked against their own equations (Benettin's tangent-space method) in the generators tests",
 	"lag1_autocorrelation":     "long-memory and jump processes need a tolerance the suite's Bartlett rule does not give; checked against the generator's analytic autocovariance in the generators tests",
-	"dfa_alpha":                "checked against the analytic autocovariance (Hosking 1981) in the generators tests; the suite checks DFA on fGn, white noise and Brownian motion",
-	"spectral_beta":            "checked against the analytic spectrum in the generators tests; the suite checks the spectral slope on fGn, fBm, white noise and Brownian motion",
+	"sc_fluct_a1":              "checked against the analytic autocovariance (Hosking 1981) in the generators tests; the suite checks DFA on fGn, white noise and Brownian motion",
+	"sc_psd_beta":              "checked against the analytic spectrum in the generators tests; the suite checks the spectral slope on fGn, fBm, white noise and Brownian motion",
 	"sideband_ratio":           "a property of the waveform's construction (AM sidebands m/2), checked in the generators tests",
 	"carrier_line":             "a property of the waveform's construction (FM Bessel sidebands), checked in the generators tests",
 	"rotation_number":          "a property of the map's orbit, not a feature: checked in the generators tests",
@@ -499,7 +499,7 @@ var skipReasons = map[string]string{
 	"self_similarity":          "a scaling property of the walk's increments, checked through the characteristic function in the generators tests",
 	"tail_exponent":            "a property of the stable law (tail P(|X| > x) ~ x^−α), checked through the characteristic function and KS tests in the generators tests",
 	"kurtosis":                 "a moment of the generator, not a feature: checked in the generators tests",
-	"spectral_peak":            "the resonance of the oscillator's transfer function, checked against the analytic spectrum in the generators tests",
+	"peak_frequency":           "the resonance of the oscillator's transfer function, checked against the analytic spectrum in the generators tests",
 }
 
 // skippedInvariants lists the registry invariants no spec covers.

@@ -196,7 +196,7 @@ func TestRunJSONHasEverySection(t *testing.T) {
 func TestRunDeterministic(t *testing.T) {
 	m := model(t)
 	base := Options{
-		Seed: 7, Seeds: 2, Invariants: []string{"lyap_max/henon", "dfa_alpha/fgn@h=0.7", "hvg_lambda/white", "nvg_gamma/fbm@h=0.7"},
+		Seed: 7, Seeds: 2, Invariants: []string{"nl_div_rate/henon", "sc_fluct_a1/fgn@h=0.7", "hv_tail_exprate/white", "nv_tail_powexp/fbm@h=0.7"},
 		Lengths: []int{512, 700}, SNRs: []float64{math.Inf(1), 20}, PerClass: 3,
 		Systems:     []string{"henon", "sine", "telegraph"},
 		PlaneLength: 2000, DegreeLength: 5000, SkipThroughput: true,
@@ -306,7 +306,7 @@ func TestInvariantCatalogue(t *testing.T) {
 	sys, _ := generators.Lookup("lorenz")
 	dt, _ := sys.SampleInterval(nil)
 	for _, s := range specs {
-		if s.id == "lyap_max/lorenz" && math.Abs(s.value-0.9056*dt) > 1e-15 {
+		if s.id == "nl_div_rate/lorenz" && math.Abs(s.value-0.9056*dt) > 1e-15 {
 			t.Errorf("lorenz per-sample value %v, want 0.9056 × %v", s.value, dt)
 		}
 	}

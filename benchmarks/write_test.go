@@ -62,7 +62,7 @@ func TestWriteAll(t *testing.T) {
 	}
 	for _, s := range []string{
 		"Screening caution", "## 1. Invariant recovery", "## 2. Classification", "## 5. Throughput (machine-dependent)",
-		"Grassberger & Procaccia", "lyap_max/lorenz", "chaotic vs stochastic", "Tolerances:", "(Luque et al. 2009)",
+		"Grassberger & Procaccia", "nl_div_rate/lorenz", "chaotic vs stochastic", "Tolerances:", "(Luque et al. 2009)",
 	} {
 		if !strings.Contains(string(md), s) {
 			t.Errorf("summary.md lacks %q", s)

@@ -10,10 +10,10 @@ import (
 )
 
 // synthetic builds a table: 8 devices measured fresh and stressed at
-// three biases. Metric "hvg_lambda" = device effect (sd 1) + 0.5·bias,
-// plus 1 when stressed, plus small noise; "inc_kurt" is noise only. Every
+// three biases. Metric "hv_tail_exprate" = device effect (sd 1) + 0.5·bias,
+// plus 1 when stressed, plus small noise; "dx_kurt_ex" is noise only. Every
 // trace has shuffle surrogates whose mean is the original minus 0.5 for
-// hvg_lambda and the original plus noise for inc_kurt; one discrete and
+// hv_tail_exprate and the original plus noise for dx_kurt_ex; one discrete and
 // one continuous distribution per trace, heavier in stressed.
 func synthetic(seed uint64) []Row {
 	rng := rand.New(rand.NewPCG(seed, 1))
@@ -35,7 +35,7 @@ func synthetic(seed uint64) []Row {
 				for _, m := range []struct {
 					name       string
 					orig, surr float64
-				}{{"hvg_lambda", lam, lam - 0.5 + 0.01*rng.NormFloat64()}, {"inc_kurt", kurt, kurt + 0.3*rng.NormFloat64()}} {
+				}{{"hv_tail_exprate", lam, lam - 0.5 + 0.01*rng.NormFloat64()}, {"dx_kurt_ex", kurt, kurt + 0.3*rng.NormFloat64()}} {
 					r := base
 					r.Condition, r.Name, r.Value, r.N = Original, m.name, m.orig, 1
 					rows = append(rows, r)
@@ -92,27 +92,27 @@ func TestAnalyzeSynthetic(t *testing.T) {
 		t.Fatalf("layout: %d traces, levels %+v, reference %s", rep.Traces, rep.Levels, rep.Reference)
 	}
 	for _, lv := range []string{"0.60", "0.90", "1.20"} {
-		sr := find(rep, QuestionGroups, TestSignedRank, "hvg_lambda", lv, "stressed")
+		sr := find(rep, QuestionGroups, TestSignedRank, "hv_tail_exprate", lv, "stressed")
 		// All 8 paired differences ≈ +1: W⁺ = 36, exact p = 2/2^8 (Wilcoxon 1945).
 		if sr == nil || sr.P != 2.0/256 || !sr.Significant || math.Abs(sr.Estimate-1) > 0.1 || sr.Effect != 1 {
 			t.Errorf("%s: signed-rank %+v", lv, sr)
 		}
-		if null := find(rep, QuestionGroups, TestSignedRank, "inc_kurt", lv, "stressed"); null == nil || null.Significant {
+		if null := find(rep, QuestionGroups, TestSignedRank, "dx_kurt_ex", lv, "stressed"); null == nil || null.Significant {
 			t.Errorf("%s: null metric significant: %+v", lv, null)
 		}
 		// Original − surrogate mean ≈ 0.5 in all 8 traces: p = 2/2^8, but
 		// Holm over the 12 tests of the family needs 0.05/12 < 2/2^8, so
 		// only BH (12·(2/256)/6 = 0.0156 ≤ 0.05) can flag them.
 		for _, g := range []string{"fresh", "stressed"} {
-			s := find(rep, QuestionSurrogate, TestSignedRank, "hvg_lambda", lv, g)
-			b := find(bh, QuestionSurrogate, TestSignedRank, "hvg_lambda", lv, g)
+			s := find(rep, QuestionSurrogate, TestSignedRank, "hv_tail_exprate", lv, g)
+			b := find(bh, QuestionSurrogate, TestSignedRank, "hv_tail_exprate", lv, g)
 			if s == nil || s.P != 2.0/256 || math.Abs(s.Estimate-0.5) > 0.05 || s.Significant || !b.Significant || b.PBH != 12*(2.0/256)/6 {
 				t.Errorf("%s %s: surrogate test %+v", lv, g, s)
 			}
 		}
 	}
 	for _, g := range []string{"fresh", "stressed"} {
-		tr := find(rep, QuestionTrend, TestSpearman, "hvg_lambda", "", g)
+		tr := find(rep, QuestionTrend, TestSpearman, "hv_tail_exprate", "", g)
 		if tr == nil || !(tr.Low <= 0.5 && 0.5 <= tr.High) || tr.Effect <= 0 {
 			t.Errorf("%s: trend %+v; the true slope 0.5 should lie in the interval", g, tr)
 		}

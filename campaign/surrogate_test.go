@@ -171,7 +171,7 @@ func TestShuffleTestSize(t *testing.T) {
 		t.Skip("size check: 240 series × 20 measurements")
 	}
 	const series = 240
-	metrics := []string{"inc_lag1", "hvg_clustering_mean"}
+	metrics := []string{"dx_acf_1", "hv_clust_mean"}
 	rejected := make([]int, len(metrics))
 	rng := rand.New(rand.NewPCG(2026, 17))
 	for k := 0; k < series; k++ {

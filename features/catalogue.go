@@ -11,9 +11,12 @@ import (
 // meaning of a feature changes without its name changing; a changed name
 // list changes SchemaHash on its own. Version 2: quantised traces are
 // dithered within their converter step before measuring (DetectGrid), the
-// Lyapunov estimator chooses its scaling region anew, and spectral_lines
-// joined the catalogue.
-const SchemaVersion = 2
+// Lyapunov estimator chooses its scaling region anew, and sc_psd_lines
+// joined the catalogue. Version 3: every identifier follows the project's
+// own scheme, family prefix + quantity + parameter (hv_, nv_ visibility
+// graphs; nl_ nonlinear; sc_ scaling; op_ ordinal patterns; dx_
+// increments); values and order are unchanged (README, "Changes").
+const SchemaVersion = 3
 
 // Family groups features by the kind of estimator behind them.
 type Family string
@@ -77,9 +80,9 @@ func SchemaHash() string {
 
 // missingByNature lists the features that are absent by nature for whole
 // classes of traces: noise has no credible exponential divergence and no
-// correlation scaling region. Their absence is information (lyap_credible
+// correlation scaling region. Their absence is information (nl_div_ok
 // carries it), not a failure worth a warning.
-var missingByNature = map[string]bool{"lyap_max": true, "lyap_delay": true, "corr_dim": true}
+var missingByNature = map[string]bool{"nl_div_rate": true, "nl_div_rate_tau": true, "nl_gp_dim": true}
 
 // MissingByNature reports whether a feature may be missing for a trace
 // without anything having gone wrong.

@@ -260,7 +260,7 @@ func TestExtractQuantisedIsUnitInvariant(t *testing.T) {
 //     any i.i.d. series).
 func TestQuantisedIIDReadsAsIID(t *testing.T) {
 	const n = 20000
-	only := []string{"perm_entropy", "stat_complexity", "hvg_mean_degree", "hvg_lambda", "hvg_clustering_mean", "sample_entropy", "inc_lag1"}
+	only := []string{"op_ent_d4", "op_jsc_d4", "hv_deg_mean", "hv_tail_exprate", "hv_clust_mean", "nl_sent_m2", "dx_acf_1"}
 	for _, tc := range []struct {
 		c      float64
 		sampEn float64
@@ -288,13 +288,13 @@ func TestQuantisedIIDReadsAsIID(t *testing.T) {
 			hi       float64
 			expected string
 		}{
-			{"perm_entropy", get("perm_entropy"), 1 - 2*bias, 1, "1"},
-			{"stat_complexity", get("stat_complexity"), 0, ordinal.Q0(patterns) * math.Log(patterns) * 2 * bias / 4, "0"},
-			{"hvg_mean_degree", get("hvg_mean_degree"), 3.99, 4.01, "4"},
-			{"hvg_lambda", get("hvg_lambda"), math.Log(1.5) - 0.01, math.Log(1.5) + 0.01, "ln 3/2"},
-			{"hvg_clustering_mean", get("hvg_clustering_mean"), 0.6479 - 0.005, 0.6479 + 0.005, "0.6479"},
-			{"sample_entropy", get("sample_entropy"), tc.sampEn - 0.015, tc.sampEn + 0.015, fmt.Sprint(tc.sampEn)},
-			{"inc_lag1", get("inc_lag1"), -0.5 - 3/math.Sqrt(n), -0.5 + 3/math.Sqrt(n), "−1/2"},
+			{"op_ent_d4", get("op_ent_d4"), 1 - 2*bias, 1, "1"},
+			{"op_jsc_d4", get("op_jsc_d4"), 0, ordinal.Q0(patterns) * math.Log(patterns) * 2 * bias / 4, "0"},
+			{"hv_deg_mean", get("hv_deg_mean"), 3.99, 4.01, "4"},
+			{"hv_tail_exprate", get("hv_tail_exprate"), math.Log(1.5) - 0.01, math.Log(1.5) + 0.01, "ln 3/2"},
+			{"hv_clust_mean", get("hv_clust_mean"), 0.6479 - 0.005, 0.6479 + 0.005, "0.6479"},
+			{"nl_sent_m2", get("nl_sent_m2"), tc.sampEn - 0.015, tc.sampEn + 0.015, fmt.Sprint(tc.sampEn)},
+			{"dx_acf_1", get("dx_acf_1"), -0.5 - 3/math.Sqrt(n), -0.5 + 3/math.Sqrt(n), "−1/2"},
 		}
 		for _, c := range checks {
 			if c.got < c.lo || c.got > c.hi {
@@ -321,16 +321,16 @@ func TestQuantisedIIDReadsAsIID(t *testing.T) {
 // ordinal measures stay within 0.02 of the unquantised ones (measured 0.01).
 func TestQuantisedChaosKeepsSignatures(t *testing.T) {
 	const n = 5000
-	only := []string{"perm_entropy", "stat_complexity", "perm_missing_excess"}
+	only := []string{"op_ent_d4", "op_jsc_d4", "op_miss_d5"}
 	logistic := series(t, "logistic", n, 7)
 	for _, levels := range []int{16, 64} {
 		v, err := Extract(adcOwn(logistic, levels, 3), Options{Only: only})
 		if err != nil {
 			t.Fatal(err)
 		}
-		h, _ := v.Get("perm_entropy")
-		c, _ := v.Get("stat_complexity")
-		m, _ := v.Get("perm_missing_excess")
+		h, _ := v.Get("op_ent_d4")
+		c, _ := v.Get("op_jsc_d4")
+		m, _ := v.Get("op_miss_d5")
 		if !v.Grid.Dithered || h > 0.9 || c < 0.1 || !(m > 0) {
 			t.Errorf("logistic, %d levels: H = %.4f, C = %.4f, forbidden excess %.4f, grid %+v", levels, h, c, m, v.Grid)
 		}
@@ -348,7 +348,7 @@ func TestQuantisedChaosKeepsSignatures(t *testing.T) {
 	if v.Grid.Order != 1 {
 		t.Errorf("Lorenz, 16 levels: grid %+v, want runs placed in order", v.Grid)
 	}
-	for _, name := range []string{"perm_entropy", "stat_complexity"} {
+	for _, name := range []string{"op_ent_d4", "op_jsc_d4"} {
 		want, _ := ref.Get(name)
 		got, _ := v.Get(name)
 		if math.Abs(got-want) > 0.02 {
@@ -374,7 +374,7 @@ func TestDiscreteSeriesLeftAsRecorded(t *testing.T) {
 		{"sawtooth", waveform(n, func(i int) float64 { return float64(i % 25) })},
 		{"sine, 16 levels", adcOwn(waveform(n, func(i int) float64 { return math.Sin(2*math.Pi*float64(i)/20 + 0.3) }), 16, 1.5)},
 	} {
-		v, err := Extract(tc.x, Options{Only: []string{"perm_entropy", "stat_complexity"}})
+		v, err := Extract(tc.x, Options{Only: []string{"op_ent_d4", "op_jsc_d4"}})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -389,8 +389,8 @@ func TestDiscreteSeriesLeftAsRecorded(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		h, _ := v.Get("perm_entropy")
-		c, _ := v.Get("stat_complexity")
+		h, _ := v.Get("op_ent_d4")
+		c, _ := v.Get("op_jsc_d4")
 		if h != r.Entropy || c != r.Complexity {
 			t.Errorf("%s: H = %v, C = %v from Extract, %v and %v from the recorded series", tc.name, h, c, r.Entropy, r.Complexity)
 		}

@@ -14,7 +14,7 @@ import (
 // Hénon map's λ1 is 0.419 per iteration: Sprott, Chaos and Time-Series
 // Analysis (2003), confirmed: tkf/LyapunovExponents.jl src/examples/henon_map.jl, the registry's invariant); white noise has
 // permutation entropy near 1 (Bandt & Pompe 2002: 1 for i.i.d.) and no
-// credible divergence, so lyap_max is missing with the reason; a sine puts
+// credible divergence, so nl_div_rate is missing with the reason; a sine puts
 // its variance in a spectral line.
 func Example() {
 	for _, name := range []string{"henon", "white", "sine"} {
@@ -33,21 +33,21 @@ func Example() {
 			fmt.Println(err)
 			return
 		}
-		pe, _ := v.Get("perm_entropy")
-		lines, _ := v.Get("spectral_lines")
+		pe, _ := v.Get("op_ent_d4")
+		lines, _ := v.Get("sc_psd_lines")
 		lyap := "missing"
-		if l, ok := v.Get("lyap_max"); ok {
+		if l, ok := v.Get("nl_div_rate"); ok {
 			lyap = fmt.Sprintf("%.2f", l)
 		} else {
-			why, _, _ := strings.Cut(v.Missing()["lyap_max"], ":")
+			why, _, _ := strings.Cut(v.Missing()["nl_div_rate"], ":")
 			lyap += " (" + why + ")"
 		}
-		fmt.Printf("%-5s perm_entropy %.2f  spectral_lines %.2f  lyap_max %s\n", name, pe, lines, lyap)
+		fmt.Printf("%-5s op_ent_d4 %.2f  sc_psd_lines %.2f  nl_div_rate %s\n", name, pe, lines, lyap)
 	}
 	// Output:
-	// henon perm_entropy 0.69  spectral_lines 0.00  lyap_max 0.40
-	// white perm_entropy 1.00  spectral_lines 0.00  lyap_max missing (no credible exponential divergence)
-	// sine  perm_entropy 0.41  spectral_lines 1.00  lyap_max missing (no credible exponential divergence)
+	// henon op_ent_d4 0.69  sc_psd_lines 0.00  nl_div_rate 0.40
+	// white op_ent_d4 1.00  sc_psd_lines 0.00  nl_div_rate missing (no credible exponential divergence)
+	// sine  op_ent_d4 0.41  sc_psd_lines 1.00  nl_div_rate missing (no credible exponential divergence)
 }
 
 // ExampleValue computes one feature alone, as a surrogate test does. The
@@ -59,23 +59,23 @@ func ExampleValue() {
 		fmt.Println(err)
 		return
 	}
-	k, err := features.Value("hvg_mean_degree", x, features.Options{})
+	k, err := features.Value("hv_deg_mean", x, features.Options{})
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	fmt.Printf("hvg_mean_degree = %.2f\n", k)
+	fmt.Printf("hv_deg_mean = %.2f\n", k)
 	_, err = features.Value("hvg_mean_dgree", x, features.Options{})
 	fmt.Println(err)
 	// Output:
-	// hvg_mean_degree = 3.99
+	// hv_deg_mean = 3.99
 	// unknown feature "hvg_mean_dgree"
 }
 
 // ExampleLookup reads a catalogue entry: the family, meaning and reference
 // that 'tracesift features --list' prints.
 func ExampleLookup() {
-	e, ok := features.Lookup("dfa_alpha")
+	e, ok := features.Lookup("sc_fluct_a1")
 	fmt.Println(ok, e.Family)
 	fmt.Println(e.Reference)
 	// Output:

@@ -10,19 +10,19 @@ import (
 var graphFamily = family{
 	name: FamilyGraph,
 	entries: []Entry{
-		{"hvg_mean_degree", FamilyGraph, "mean degree of the horizontal visibility graph (→ 4 for any i.i.d. series without ties — Extract dithers quantised traces first; 4(1 − 1/2T) for period T)", "Luque et al., Phys. Rev. E 80 (2009) 046103"},
-		{"hvg_lambda", FamilyGraph, "exponential tail rate λ of the HVG degree distribution P(k) ~ e^{−λk} (ln 3/2 for i.i.d.; below for chaos, above for correlated noise)", "Luque et al. (2009); Lacasa & Toral, Phys. Rev. E 82 (2010) 036120"},
-		{"hvg_clustering_mean", FamilyGraph, "mean local clustering coefficient of the HVG (≈ 0.648 for i.i.d.)", "Luque et al. (2009)"},
-		{"hvg_degree_entropy", FamilyGraph, "Shannon entropy of the HVG degree distribution, nats", "Shannon (1948); Luque et al. (2009)"},
-		{"hvg_irreversibility", FamilyGraph, "Kullback–Leibler divergence between out- and in-degree distributions of the directed HVG (≈ 0 for reversible linear Gaussian series)", "Lacasa et al., Eur. Phys. J. B 85 (2012) 217"},
-		{"nvg_mean_degree", FamilyGraph, "mean degree of the natural visibility graph", "Lacasa et al., PNAS 105 (2008) 4972"},
-		{"nvg_gamma", FamilyGraph, "power-law exponent γ of the NVG degree distribution by discrete maximum likelihood, k_min by the KS distance", "Lacasa et al., EPL 86 (2009) 30001; Clauset, Shalizi & Newman, SIAM Review 51 (2009) 661"},
-		{"nvg_clustering_mean", FamilyGraph, "mean local clustering coefficient of the NVG", "Lacasa et al. (2008); Watts & Strogatz, Nature 393 (1998) 440"},
-		{"nvg_modularity", FamilyGraph, "modularity of the Louvain partition of the NVG", "Newman & Girvan, Phys. Rev. E 69 (2004) 026113; Blondel et al., J. Stat. Mech. (2008) P10008"},
-		{"nvg_assortativity", FamilyGraph, "degree assortativity of the NVG", "Newman, Phys. Rev. Lett. 89 (2002) 208701"},
-		{"nvg_degree_entropy", FamilyGraph, "Shannon entropy of the NVG degree distribution, nats", "Shannon (1948)"},
-		{"nvg_path_norm", FamilyGraph, "average shortest-path length of the NVG divided by ln n (estimated from 32 sampled sources above 2000 nodes)", "Watts & Strogatz (1998); small-world scaling, common practice"},
-		{"nvg_dimension", FamilyGraph, "local graph dimension of the NVG: growth exponent of the number of nodes within graph distance r", "Shanker, Physica D 227 (2007) 153 (memory); method documented in features/visibility"},
+		{"hv_deg_mean", FamilyGraph, "mean degree of the horizontal visibility graph (→ 4 for any i.i.d. series without ties — Extract dithers quantised traces first; 4(1 − 1/2T) for period T)", "Luque et al., Phys. Rev. E 80 (2009) 046103"},
+		{"hv_tail_exprate", FamilyGraph, "exponential tail rate λ of the HVG degree distribution P(k) ~ e^{−λk} (ln 3/2 for i.i.d.; below for chaos, above for correlated noise)", "Luque et al. (2009); Lacasa & Toral, Phys. Rev. E 82 (2010) 036120"},
+		{"hv_clust_mean", FamilyGraph, "mean local clustering coefficient of the HVG (≈ 0.648 for i.i.d.)", "Luque et al. (2009)"},
+		{"hv_deg_ent", FamilyGraph, "Shannon entropy of the HVG degree distribution, nats", "Shannon (1948); Luque et al. (2009)"},
+		{"hv_dir_kld", FamilyGraph, "Kullback–Leibler divergence between out- and in-degree distributions of the directed HVG (≈ 0 for reversible linear Gaussian series)", "Lacasa et al., Eur. Phys. J. B 85 (2012) 217"},
+		{"nv_deg_mean", FamilyGraph, "mean degree of the natural visibility graph", "Lacasa et al., PNAS 105 (2008) 4972"},
+		{"nv_tail_powexp", FamilyGraph, "power-law exponent γ of the NVG degree distribution by discrete maximum likelihood, k_min by the KS distance", "Lacasa et al., EPL 86 (2009) 30001; Clauset, Shalizi & Newman, SIAM Review 51 (2009) 661"},
+		{"nv_clust_mean", FamilyGraph, "mean local clustering coefficient of the NVG", "Lacasa et al. (2008); Watts & Strogatz, Nature 393 (1998) 440"},
+		{"nv_comm_q", FamilyGraph, "modularity of the Louvain partition of the NVG", "Newman & Girvan, Phys. Rev. E 69 (2004) 026113; Blondel et al., J. Stat. Mech. (2008) P10008"},
+		{"nv_deg_assort", FamilyGraph, "degree assortativity of the NVG", "Newman, Phys. Rev. Lett. 89 (2002) 208701"},
+		{"nv_deg_ent", FamilyGraph, "Shannon entropy of the NVG degree distribution, nats", "Shannon (1948)"},
+		{"nv_path_lnn", FamilyGraph, "average shortest-path length of the NVG divided by ln n (estimated from 32 sampled sources above 2000 nodes)", "Watts & Strogatz (1998); small-world scaling, common practice"},
+		{"nv_ball_dim", FamilyGraph, "local graph dimension of the NVG: growth exponent of the number of nodes within graph distance r", "Shanker, Physica D 227 (2007) 153 (memory); method documented in features/visibility"},
 	},
 	compute: computeGraph,
 }
@@ -32,8 +32,8 @@ var graphFamily = family{
 const graphSources = 32
 
 func computeGraph(z []float64, o Options, s *sink) {
-	hvgNames := []string{"hvg_mean_degree", "hvg_lambda", "hvg_clustering_mean", "hvg_degree_entropy", "hvg_irreversibility"}
-	nvgNames := []string{"nvg_mean_degree", "nvg_gamma", "nvg_clustering_mean", "nvg_modularity", "nvg_assortativity", "nvg_degree_entropy", "nvg_path_norm", "nvg_dimension"}
+	hvgNames := []string{"hv_deg_mean", "hv_tail_exprate", "hv_clust_mean", "hv_deg_ent", "hv_dir_kld"}
+	nvgNames := []string{"nv_deg_mean", "nv_tail_powexp", "nv_clust_mean", "nv_comm_q", "nv_deg_assort", "nv_deg_ent", "nv_path_lnn", "nv_ball_dim"}
 	if s.wants(hvgNames...) {
 		if g, err := visibility.Horizontal(z, visibility.Options{MaxEdges: o.MaxEdges}); err != nil {
 			s.missErr(fmt.Errorf("HVG: %w", err), hvgNames...)
@@ -42,11 +42,11 @@ func computeGraph(z []float64, o Options, s *sink) {
 			if err != nil {
 				s.missErr(fmt.Errorf("HVG: %w", err), hvgNames...)
 			} else {
-				s.set("hvg_mean_degree", m.MeanDegree)
-				setOrMiss(s, "hvg_lambda", m.Lambda, m.Warnings)
-				s.set("hvg_clustering_mean", m.ClusteringMean)
-				s.set("hvg_degree_entropy", m.Degree.Entropy)
-				setOrMiss(s, "hvg_irreversibility", m.IrreversibilityKLD, m.Warnings)
+				s.set("hv_deg_mean", m.MeanDegree)
+				setOrMiss(s, "hv_tail_exprate", m.Lambda, m.Warnings)
+				s.set("hv_clust_mean", m.ClusteringMean)
+				s.set("hv_deg_ent", m.Degree.Entropy)
+				setOrMiss(s, "hv_dir_kld", m.IrreversibilityKLD, m.Warnings)
 			}
 		}
 	}
@@ -57,8 +57,8 @@ func computeGraph(z []float64, o Options, s *sink) {
 			return
 		}
 		m, err := visibility.Measure(g, visibility.MeasureOptions{
-			NoPaths:       !s.wants("nvg_path_norm", "nvg_dimension"),
-			NoCommunities: !s.wants("nvg_modularity"),
+			NoPaths:       !s.wants("nv_path_lnn", "nv_ball_dim"),
+			NoCommunities: !s.wants("nv_comm_q"),
 			Sources:       graphSources,
 			Seed:          o.Seed,
 		})
@@ -66,14 +66,14 @@ func computeGraph(z []float64, o Options, s *sink) {
 			s.missErr(fmt.Errorf("NVG: %w", err), nvgNames...)
 			return
 		}
-		s.set("nvg_mean_degree", m.MeanDegree)
-		setOrMiss(s, "nvg_gamma", m.Gamma, m.Warnings)
-		s.set("nvg_clustering_mean", m.ClusteringMean)
-		setOrMiss(s, "nvg_modularity", m.Modularity, m.Warnings)
-		setOrMiss(s, "nvg_assortativity", m.Assortativity, m.Warnings)
-		s.set("nvg_degree_entropy", m.Degree.Entropy)
-		setOrMiss(s, "nvg_path_norm", m.AvgPathLength/math.Log(float64(len(z))), m.Warnings)
-		setOrMiss(s, "nvg_dimension", m.LocalDimension, m.Warnings)
+		s.set("nv_deg_mean", m.MeanDegree)
+		setOrMiss(s, "nv_tail_powexp", m.Gamma, m.Warnings)
+		s.set("nv_clust_mean", m.ClusteringMean)
+		setOrMiss(s, "nv_comm_q", m.Modularity, m.Warnings)
+		setOrMiss(s, "nv_deg_assort", m.Assortativity, m.Warnings)
+		s.set("nv_deg_ent", m.Degree.Entropy)
+		setOrMiss(s, "nv_path_lnn", m.AvgPathLength/math.Log(float64(len(z))), m.Warnings)
+		setOrMiss(s, "nv_ball_dim", m.LocalDimension, m.Warnings)
 	}
 }
 

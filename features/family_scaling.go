@@ -11,16 +11,16 @@ import (
 var scalingFamily = family{
 	name: FamilyScaling,
 	entries: []Entry{
-		{"dfa_alpha", FamilyScaling, "detrended fluctuation exponent α, order 1 (fGn: α = H; white 0.5; Brownian 1.5)", "Peng et al., Phys. Rev. E 49 (1994) 1685"},
-		{"dfa2_alpha", FamilyScaling, "detrended fluctuation exponent α, order 2 (insensitive to linear trends)", "Peng et al., Phys. Rev. E 49 (1994) 1685"},
-		{"dfa_r2", FamilyScaling, "r² of the DFA-1 log–log fit: how well one power law describes F(s)", "Peng et al. (1994); fit quality, common practice"},
-		{"hurst_rs", FamilyScaling, "rescaled-range Hurst exponent with the Anis–Lloyd small-sample correction", "Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111"},
-		{"spectral_beta", FamilyScaling, "spectral exponent β of S(f) ~ f^−β from a Welch periodogram (white 0, fGn 2H−1, Brownian 2)", "Welch (1967); standard result for these processes"},
-		{"spectral_r2", FamilyScaling, "r² of the log–log spectral fit: low for line spectra and humps", "fit quality, common practice"},
-		{"spectral_flatness", FamilyScaling, "Wiener entropy of the Welch spectrum: geometric over arithmetic mean power (1 flat, → 0 for lines)", "Johnston, IEEE J. Sel. Areas Commun. 6 (1988) 314 (checked: uk.mathworks.com/help/audio/ref/spectralflatness.html)"},
-		{"spectral_peak", FamilyScaling, "fraction of the spectral power in the strongest three bins (near 1 for periodic signals)", "spectral concentration, common practice"},
-		{"spectral_lines", FamilyScaling, "fraction of the variance in narrow spectral lines (bins ≥ 20× a local power-law floor, Welch spectrum of half-length segments): → 1 for periodic and quasi-periodic motion, ≈ 0 for noise of any colour and for mixing chaos", "point versus continuous spectrum, Bergé, Pomeau & Vidal, Order within Chaos (1984) (memory); estimator documented in features/scaling"},
-		{"acf_decay", FamilyScaling, "autocorrelation 1/e decay time in samples, log10 (lower bound when the ACF never decays)", "Box & Jenkins, Time Series Analysis (1970); common practice"},
+		{"sc_fluct_a1", FamilyScaling, "detrended fluctuation exponent α, order 1 (fGn: α = H; white 0.5; Brownian 1.5)", "Peng et al., Phys. Rev. E 49 (1994) 1685"},
+		{"sc_fluct_a2", FamilyScaling, "detrended fluctuation exponent α, order 2 (insensitive to linear trends)", "Peng et al., Phys. Rev. E 49 (1994) 1685"},
+		{"sc_fluct_r2", FamilyScaling, "r² of the DFA-1 log–log fit: how well one power law describes F(s)", "Peng et al. (1994); fit quality, common practice"},
+		{"sc_range_h", FamilyScaling, "rescaled-range Hurst exponent with the Anis–Lloyd small-sample correction", "Hurst (1951); Anis & Lloyd, Biometrika 63 (1976) 111"},
+		{"sc_psd_beta", FamilyScaling, "spectral exponent β of S(f) ~ f^−β from a Welch periodogram (white 0, fGn 2H−1, Brownian 2)", "Welch (1967); standard result for these processes"},
+		{"sc_psd_r2", FamilyScaling, "r² of the log–log spectral fit: low for line spectra and humps", "fit quality, common practice"},
+		{"sc_psd_flat", FamilyScaling, "Wiener entropy of the Welch spectrum: geometric over arithmetic mean power (1 flat, → 0 for lines)", "Johnston, IEEE J. Sel. Areas Commun. 6 (1988) 314 (checked: uk.mathworks.com/help/audio/ref/spectralflatness.html)"},
+		{"sc_psd_top3", FamilyScaling, "fraction of the spectral power in the strongest three bins (near 1 for periodic signals)", "spectral concentration, common practice"},
+		{"sc_psd_lines", FamilyScaling, "fraction of the variance in narrow spectral lines (bins ≥ 20× a local power-law floor, Welch spectrum of half-length segments): → 1 for periodic and quasi-periodic motion, ≈ 0 for noise of any colour and for mixing chaos", "point versus continuous spectrum, Bergé, Pomeau & Vidal, Order within Chaos (1984) (memory); estimator documented in features/scaling"},
+		{"sc_acf_efold", FamilyScaling, "autocorrelation 1/e decay time in samples, log10 (lower bound when the ACF never decays)", "Box & Jenkins, Time Series Analysis (1970); common practice"},
 	},
 	compute: computeScaling,
 }
@@ -31,26 +31,26 @@ func computeScaling(z []float64, _ Options, s *sink) {
 		if err != nil {
 			return err
 		}
-		s.set("dfa_alpha", r.Alpha)
-		s.set("dfa_r2", r.R2)
+		s.set("sc_fluct_a1", r.Alpha)
+		s.set("sc_fluct_r2", r.R2)
 		return nil
-	}, "dfa_alpha", "dfa_r2")
+	}, "sc_fluct_a1", "sc_fluct_r2")
 	s.measure(func() error {
 		r, err := scaling.DFA(z, scaling.DFAOptions{Order: 2})
 		if err != nil {
 			return err
 		}
-		s.set("dfa2_alpha", r.Alpha)
+		s.set("sc_fluct_a2", r.Alpha)
 		return nil
-	}, "dfa2_alpha")
+	}, "sc_fluct_a2")
 	s.measure(func() error {
 		r, err := scaling.RescaledRange(z, scaling.RSOptions{})
 		if err != nil {
 			return err
 		}
-		s.set("hurst_rs", r.H)
+		s.set("sc_range_h", r.H)
 		return nil
-	}, "hurst_rs")
+	}, "sc_range_h")
 	// One Welch spectrum serves the spectral slope and shape.
 	var spec scaling.Spectrum
 	var specErr error
@@ -71,28 +71,28 @@ func computeScaling(z []float64, _ Options, s *sink) {
 		if err != nil {
 			return err
 		}
-		s.set("spectral_beta", r.Beta)
-		s.set("spectral_r2", r.R2)
+		s.set("sc_psd_beta", r.Beta)
+		s.set("sc_psd_r2", r.R2)
 		return nil
-	}, "spectral_beta", "spectral_r2")
+	}, "sc_psd_beta", "sc_psd_r2")
 	s.measure(func() error {
 		sp, err := spectrum()
 		if err != nil {
 			return err
 		}
 		flat, peak := spectralShape(sp.Power[1:])
-		s.set("spectral_flatness", flat)
-		s.set("spectral_peak", peak)
+		s.set("sc_psd_flat", flat)
+		s.set("sc_psd_top3", peak)
 		return nil
-	}, "spectral_flatness", "spectral_peak")
+	}, "sc_psd_flat", "sc_psd_top3")
 	s.measure(func() error {
 		r, err := scaling.Lines(z, scaling.LinesOptions{})
 		if err != nil {
 			return err
 		}
-		s.set("spectral_lines", r.Fraction)
+		s.set("sc_psd_lines", r.Fraction)
 		return nil
-	}, "spectral_lines")
+	}, "sc_psd_lines")
 	s.measure(func() error {
 		r, err := scaling.DecayTime(z, scaling.DecayOptions{})
 		switch {
@@ -100,14 +100,14 @@ func computeScaling(z []float64, _ Options, s *sink) {
 			// The ACF never fell below 1/e over the lag range (n/4): that
 			// range is a lower bound of the decay time, which is what the
 			// feature needs.
-			s.set("acf_decay", math.Log10(float64(len(z)/4)))
+			s.set("sc_acf_efold", math.Log10(float64(len(z)/4)))
 		case err != nil:
 			return err
 		default:
-			s.set("acf_decay", math.Log10(math.Max(r.Time, 1e-3)))
+			s.set("sc_acf_efold", math.Log10(math.Max(r.Time, 1e-3)))
 		}
 		return nil
-	}, "acf_decay")
+	}, "sc_acf_efold")
 }
 
 // spectralShape returns the spectral flatness (geometric mean over

@@ -13,10 +13,10 @@ import (
 
 // coreNames are the feature names DESIGN.md promises to scripts.
 var coreNames = []string{
-	"lyap_max", "corr_dim", "dfa_alpha", "hurst_rs", "spectral_beta",
-	"perm_entropy", "stat_complexity", "sample_entropy", "zero_one_k",
-	"hvg_mean_degree", "hvg_lambda", "hvg_clustering_mean",
-	"nvg_mean_degree", "nvg_gamma", "nvg_clustering_mean", "nvg_modularity", "nvg_assortativity",
+	"nl_div_rate", "nl_gp_dim", "sc_fluct_a1", "sc_range_h", "sc_psd_beta",
+	"op_ent_d4", "op_jsc_d4", "nl_sent_m2", "nl_k01",
+	"hv_deg_mean", "hv_tail_exprate", "hv_clust_mean",
+	"nv_deg_mean", "nv_tail_powexp", "nv_clust_mean", "nv_comm_q", "nv_deg_assort",
 }
 
 func TestCatalogue(t *testing.T) {
@@ -30,8 +30,16 @@ func TestCatalogue(t *testing.T) {
 		if !name.MatchString(e.Name) {
 			t.Errorf("feature name %q is not snake_case", e.Name)
 		}
+		if p := familyPrefix[e.Family]; !strings.HasPrefix(e.Name, p[0]) && (p[1] == "" || !strings.HasPrefix(e.Name, p[1])) {
+			t.Errorf("feature %s of family %s lacks its family prefix %q", e.Name, e.Family, p)
+		}
 		if e.Description == "" || e.Reference == "" || e.Family == "" {
 			t.Errorf("%s: description, reference and family are required: %+v", e.Name, e)
+		}
+	}
+	for n := range seen {
+		if foreignNames[n] {
+			t.Errorf("feature %s is a function name of another analysis library; use our own scheme", n)
 		}
 	}
 	for _, n := range coreNames {
@@ -44,6 +52,31 @@ func TestCatalogue(t *testing.T) {
 			t.Errorf("missingByNature names %s, which is not a feature", n)
 		}
 	}
+}
+
+// familyPrefix is the identifier prefix of each family (schema 3): family
+// prefix + quantity + parameter, our own scheme (DEVELOPERS.md).
+var familyPrefix = map[Family][2]string{
+	FamilyGraph:      {"hv_", "nv_"},
+	FamilyNonlinear:  {"nl_", ""},
+	FamilyScaling:    {"sc_", ""},
+	FamilyOrdinal:    {"op_", ""},
+	FamilyIncrements: {"dx_", ""},
+}
+
+// foreignNames are function names of widely used open-source
+// nonlinear-analysis libraries (Python's nolds, antropy, neurokit2 and
+// ordpy; recalled from memory, not looked up), which our identifiers must
+// not equal: the catalogue is our own scheme, not their interfaces merged.
+var foreignNames = map[string]bool{
+	"sampen": true, "corr_dim": true, "lyap_r": true, "lyap_e": true, "hurst_rs": true, "dfa": true,
+	"perm_entropy": true, "spectral_entropy": true, "svd_entropy": true, "app_entropy": true,
+	"sample_entropy": true, "lziv_complexity": true, "petrosian_fd": true, "katz_fd": true,
+	"higuchi_fd": true, "detrended_fluctuation": true, "hjorth_params": true, "num_zerocross": true,
+	"entropy_sample": true, "entropy_permutation": true, "entropy_approximate": true,
+	"fractal_dfa": true, "fractal_correlation": true, "complexity_lyapunov": true, "complexity_hurst": true,
+	"permutation_entropy": true, "complexity_entropy": true, "ordinal_network": true, "missing_patterns": true,
+	"statistical_complexity": true, "weighted_permutation_entropy": true,
 }
 
 func TestSchemaHash(t *testing.T) {
@@ -129,18 +162,18 @@ func TestMissingFeaturesCarryReasons(t *testing.T) {
 	// White noise has no credible Lyapunov exponent (Rosenstein et al. 1993
 	// divergence curve saturates at once): missing by nature, with a reason.
 	v, _ := Extract(series(t, "white", 3000, 5), Options{})
-	if _, ok := v.Get("lyap_max"); ok {
+	if _, ok := v.Get("nl_div_rate"); ok {
 		t.Error("white noise got a Lyapunov exponent")
 	}
-	if c, _ := v.Get("lyap_credible"); c != 0 {
-		t.Errorf("white noise lyap_credible = %v, want 0", c)
+	if c, _ := v.Get("nl_div_ok"); c != 0 {
+		t.Errorf("white noise nl_div_ok = %v, want 0", c)
 	}
 }
 
 func TestValueMatchesExtract(t *testing.T) {
 	x := series(t, "henon", 2000, 6)
 	full, _ := Extract(x, Options{Seed: 2})
-	for _, name := range []string{"asym_abs", "hvg_lambda", "perm_entropy", "dfa_alpha", "lyap_max", "inc_kurt"} {
+	for _, name := range []string{"nl_trev_1", "hv_tail_exprate", "op_ent_d4", "sc_fluct_a1", "nl_div_rate", "dx_kurt_ex"} {
 		got, err := Value(name, x, Options{Seed: 2})
 		want, _ := full.Get(name)
 		if err != nil || math.Float64bits(got) != math.Float64bits(want) {
@@ -150,7 +183,7 @@ func TestValueMatchesExtract(t *testing.T) {
 	if _, err := Value("nosuch", x, Options{}); !errors.Is(err, ErrUnknownFeature) {
 		t.Errorf("unknown feature: err %v", err)
 	}
-	if _, err := Value("lyap_max", series(t, "white", 2000, 1), Options{}); err == nil || !strings.Contains(err.Error(), "no credible") {
+	if _, err := Value("nl_div_rate", series(t, "white", 2000, 1), Options{}); err == nil || !strings.Contains(err.Error(), "no credible") {
 		t.Errorf("missing feature: err %v, want the reason", err)
 	}
 }

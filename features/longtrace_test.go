@@ -77,7 +77,7 @@ func TestLongTraceIsMeasuredInWindows(t *testing.T) {
 		t.Errorf("only %d of %d features differ from the whole-trace vector: windowing did not take effect", differs, len(got.Names))
 	}
 	again, _ := Extract(x, Options{Seed: 3, Window: window, Sequential: true})
-	if vectorDigest(again) != vectorDigest(got) {
+	if vectorDigest(t, again) != vectorDigest(t, got) {
 		t.Error("windowed vector differs between a parallel and a sequential run")
 	}
 }
@@ -91,7 +91,7 @@ func TestDefaultWindowCutsLongTraces(t *testing.T) {
 	for i := range x {
 		x[i] = rng.NormFloat64()
 	}
-	v, err := Extract(x, Options{Only: []string{"perm_entropy"}})
+	v, err := Extract(x, Options{Only: []string{"op_ent_d4"}})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -103,11 +103,11 @@ func TestDefaultWindowCutsLongTraces(t *testing.T) {
 	// 88 (2002) 174102) up to the plug-in estimator's bias, (K − 1)/(2N)
 	// nats for K patterns in N samples (Miller 1955; as in the R entropy package's entropy.MillerMadow, rdrr.io/cran/entropy/src/R/entropy.MillerMadow.R): 23/(2·5·10^5)
 	// / ln 24 ≈ 7·10^-6 here.
-	if pe, ok := v.Get("perm_entropy"); !ok || math.Abs(pe-1) > 1e-4 {
-		t.Errorf("perm_entropy %v (present %v), want 1 within 1e-4", pe, ok)
+	if pe, ok := v.Get("op_ent_d4"); !ok || math.Abs(pe-1) > 1e-4 {
+		t.Errorf("op_ent_d4 %v (present %v), want 1 within 1e-4", pe, ok)
 	}
-	if v.Reasons[slices.Index(v.Names, "dfa_alpha")] != "not requested" {
-		t.Errorf("an unrequested feature's reason is %q, want \"not requested\"", v.Reasons[slices.Index(v.Names, "dfa_alpha")])
+	if v.Reasons[slices.Index(v.Names, "sc_fluct_a1")] != "not requested" {
+		t.Errorf("an unrequested feature's reason is %q, want \"not requested\"", v.Reasons[slices.Index(v.Names, "sc_fluct_a1")])
 	}
 }
 
@@ -121,9 +121,9 @@ func TestWindowsNeedAMajority(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	i := slices.Index(v.Names, "hvg_mean_degree")
+	i := slices.Index(v.Names, "hv_deg_mean")
 	if v.Spread[i].Measured != 2 || math.IsNaN(v.Values[i]) {
-		t.Errorf("one flat window of 3: hvg_mean_degree %v measured in %d windows, want a value from 2", v.Values[i], v.Spread[i].Measured)
+		t.Errorf("one flat window of 3: hv_deg_mean %v measured in %d windows, want a value from 2", v.Values[i], v.Spread[i].Measured)
 	}
 	twoFlat := slices.Clone(oneFlat)
 	clear(twoFlat[2000:])
@@ -132,7 +132,7 @@ func TestWindowsNeedAMajority(t *testing.T) {
 		t.Fatal(err)
 	}
 	if !math.IsNaN(v.Values[i]) || !strings.Contains(v.Reasons[i], "missing in 2 of 3 windows") || !errors.Is(v.Causes[i], ErrConstant) {
-		t.Errorf("two flat windows of 3: hvg_mean_degree %v, reason %q, cause %v; want missing, naming 2 of 3 windows, ErrConstant",
+		t.Errorf("two flat windows of 3: hv_deg_mean %v, reason %q, cause %v; want missing, naming 2 of 3 windows, ErrConstant",
 			v.Values[i], v.Reasons[i], v.Causes[i])
 	}
 }
@@ -147,16 +147,16 @@ func TestEdgeBudgetIsTheCause(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if _, ok := v.Get("hvg_mean_degree"); !ok {
-		t.Error("hvg_mean_degree missing under a budget above 2n edges")
+	if _, ok := v.Get("hv_deg_mean"); !ok {
+		t.Error("hv_deg_mean missing under a budget above 2n edges")
 	}
-	i := slices.Index(v.Names, "nvg_mean_degree")
+	i := slices.Index(v.Names, "nv_deg_mean")
 	var eb *visibility.EdgeBudgetError
 	if !math.IsNaN(v.Values[i]) || !errors.As(v.Causes[i], &eb) || eb.Budget != 5000 || eb.Nodes != 2000 || !errors.Is(v.Causes[i], visibility.ErrTooManyEdges) {
-		t.Fatalf("nvg_mean_degree %v, cause %v; want missing because of the 5000-edge budget on 2000 nodes", v.Values[i], v.Causes[i])
+		t.Fatalf("nv_deg_mean %v, cause %v; want missing because of the 5000-edge budget on 2000 nodes", v.Values[i], v.Causes[i])
 	}
-	if j := slices.Index(v.Names, "dfa_alpha"); v.Causes[j] != nil || v.Reasons[j] != "" {
-		t.Errorf("dfa_alpha: cause %v, reason %q; want none", v.Causes[j], v.Reasons[j])
+	if j := slices.Index(v.Names, "sc_fluct_a1"); v.Causes[j] != nil || v.Reasons[j] != "" {
+		t.Errorf("sc_fluct_a1: cause %v, reason %q; want none", v.Causes[j], v.Reasons[j])
 	}
 }
 
@@ -185,7 +185,7 @@ func TestWindowTooShort(t *testing.T) {
 	if _, err := Extract(x, Options{Window: 2*MinLength - 1}); !errors.Is(err, ErrWindow) {
 		t.Errorf("window %d: err %v, want ErrWindow", 2*MinLength-1, err)
 	}
-	if _, err := Extract(x, Options{Window: 2 * MinLength, Only: []string{"perm_entropy"}}); err != nil {
+	if _, err := Extract(x, Options{Window: 2 * MinLength, Only: []string{"op_ent_d4"}}); err != nil {
 		t.Errorf("window %d: %v", 2*MinLength, err)
 	}
 }

@@ -85,8 +85,8 @@ func init() {
 		},
 		Invariants: []Invariant{
 			{Name: "lag1_autocorrelation", Value: 0.3 / 0.7, Unit: "", Source: "Hosking, Biometrika 68 (1981) 165: ρ(1) = d/(1 - d) for ARFIMA(0, d, 0)"},
-			{Name: "dfa_alpha", Value: 0.8, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685 with H = d + ½ (standard result)"},
-			{Name: "spectral_beta", Value: 0.6, Unit: "", Source: "Hosking (1981): S(ω) ~ ω^-2d at low frequency"},
+			{Name: "sc_fluct_a1", Value: 0.8, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685 with H = d + ½ (standard result)"},
+			{Name: "sc_psd_beta", Value: 0.6, Unit: "", Source: "Hosking (1981): S(ω) ~ ω^-2d at low frequency"},
 		},
 	}, func(p map[string]float64) (Generator, error) {
 		return ARFIMA{D: p["d"], Phi: p["phi"]}, nil

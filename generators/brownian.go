@@ -52,8 +52,8 @@ func init() {
 		Doc:    "Cumulative sum of N(drift, sigma²) steps; non-stationary. Label: stochastic.",
 		Params: params(0),
 		Invariants: []Invariant{
-			{Name: "dfa_alpha", Value: 1.5, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685"},
-			{Name: "spectral_beta", Value: 2, Unit: "", Source: "standard result for Brownian motion"},
+			{Name: "sc_fluct_a1", Value: 1.5, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685"},
+			{Name: "sc_psd_beta", Value: 2, Unit: "", Source: "standard result for Brownian motion"},
 		},
 		TimeAxis:     AxisIteration,
 		DefaultClass: Stochastic,

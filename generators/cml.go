@@ -117,7 +117,7 @@ func init() {
 			{Name: "obs", Default: 0, Min: 0, Max: 3, Integer: true, Doc: "observed site x_obs (every site is statistically the same by the ring's symmetry; at most 3 so that it exists for every N ≥ 4)"},
 		},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0.6931471805599453, Unit: "per iteration", Source: "analytic at eps = 0: uncoupled logistic maps at r = 4, λ = ln 2"},
+			{Name: "nl_div_rate", Value: 0.6931471805599453, Unit: "per iteration", Source: "analytic at eps = 0: uncoupled logistic maps at r = 4, λ = ln 2"},
 		},
 		DefaultClass: Chaotic,
 	}, func(p map[string]float64) CML {

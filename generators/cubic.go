@@ -58,7 +58,7 @@ func init() {
 		Doc:    "Chaotic at r = 3 (conjugate to angle tripling, λ = ln 3); symmetric period doubling below. Below r = 2 the orbit settles on a fixed point or 2-cycle, so r starts at 2.3. Label: chaotic when λ1 from the tangent map (orbit from 0.3, 10^5 iterations after 10^4) exceeds 0.01 per iteration.",
 		Params: []Param{{Name: "r", Default: 3, Min: 2.3, Max: 3, Doc: "linear gain"}},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: math.Log(3), Unit: "per iteration", Source: "analytic: conjugacy to angle tripling via x = 2 cos θ, r = 3"},
+			{Name: "nl_div_rate", Value: math.Log(3), Unit: "per iteration", Source: "analytic: conjugacy to angle tripling via x = 2 cos θ, r = 3"},
 		},
 		DefaultClass: Chaotic,
 	}, func(p map[string]float64) Cubic { return Cubic{R: p["r"]} }, 0.3)

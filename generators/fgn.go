@@ -119,8 +119,8 @@ func init() {
 			{Name: "sigma", Default: 1, Min: 1e-12, Max: 1e12, Doc: "standard deviation"},
 		},
 		Invariants: []Invariant{
-			{Name: "dfa_alpha", Value: 0.7, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685: α = H"},
-			{Name: "spectral_beta", Value: 0.4, Unit: "", Source: "standard result: fGn spectrum ~ f^-(2H-1)"},
+			{Name: "sc_fluct_a1", Value: 0.7, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685: α = H"},
+			{Name: "sc_psd_beta", Value: 0.4, Unit: "", Source: "standard result: fGn spectrum ~ f^-(2H-1)"},
 		},
 		TimeAxis:     AxisIteration,
 		DefaultClass: Stochastic,
@@ -138,8 +138,8 @@ func init() {
 			{Name: "sigma", Default: 1, Min: 1e-12, Max: 1e12, Doc: "standard deviation of the increments"},
 		},
 		Invariants: []Invariant{
-			{Name: "dfa_alpha", Value: 1.7, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685: α = H + 1 for the integrated process"},
-			{Name: "spectral_beta", Value: 2.4, Unit: "", Source: "standard result: fBm spectrum ~ f^-(2H+1)"},
+			{Name: "sc_fluct_a1", Value: 1.7, Unit: "", Source: "Peng et al., Phys. Rev. E 49 (1994) 1685: α = H + 1 for the integrated process"},
+			{Name: "sc_psd_beta", Value: 2.4, Unit: "", Source: "standard result: fBm spectrum ~ f^-(2H+1)"},
 		},
 		TimeAxis:     AxisIteration,
 		DefaultClass: Stochastic,

@@ -139,9 +139,9 @@ func init() {
 		Doc:    "Chaotic at σ = 10, ρ = 28, β = 8/3. Internal RK4 step ≤ 0.005 time units; transient 50 time units." + rule,
 		Params: lorenzParams(28),
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0.9056, Unit: "per time unit", Source: "Sprott, Chaos and Time-Series Analysis (2003); confirmed: tkf/LyapunovExponents.jl src/examples/lorenz_63.jl"},
+			{Name: "nl_div_rate", Value: 0.9056, Unit: "per time unit", Source: "Sprott, Chaos and Time-Series Analysis (2003); confirmed: tkf/LyapunovExponents.jl src/examples/lorenz_63.jl"},
 			{Name: "lyap_sum", Value: -(10 + 1 + 8.0/3.0), Unit: "per time unit", Source: "analytic: divergence of the vector field -(σ + 1 + β)"},
-			{Name: "corr_dim", Value: 2.05, Unit: "", Source: "Grassberger & Procaccia, Physica D 9 (1983) 189; 2.05 ± 0.01 confirmed: nonlinearTseries tests/testthat/test_correlation_dim.R"},
+			{Name: "nl_gp_dim", Value: 2.05, Unit: "", Source: "Grassberger & Procaccia, Physica D 9 (1983) 189; 2.05 ± 0.01 confirmed: nonlinearTseries tests/testthat/test_correlation_dim.R"},
 		},
 		DefaultClass: Chaotic,
 		threshold:    0.05,

@@ -140,8 +140,8 @@ func init() {
 			{Name: "k", Default: 3, Min: 0.5, Max: 100, Doc: "chi-squared degrees of freedom"},
 		},
 		Invariants: []Invariant{
-			{Name: "perm_entropy", Value: 1, Unit: "normalised", Source: "Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102: i.i.d. continuous marginals (ties of Poisson counts excepted)"},
-			{Name: "hvg_mean_degree", Value: 4, Unit: "", Source: "Luque et al., Phys. Rev. E 80 (2009) 046103: any continuous i.i.d. series"},
+			{Name: "op_ent_d4", Value: 1, Unit: "normalised", Source: "Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102: i.i.d. continuous marginals (ties of Poisson counts excepted)"},
+			{Name: "hv_deg_mean", Value: 4, Unit: "", Source: "Luque et al., Phys. Rev. E 80 (2009) 046103: any continuous i.i.d. series"},
 		},
 	}, func(p map[string]float64) (Generator, error) {
 		return IID{Marginal: Marginal(p["marginal"]), Sigma: p["sigma"], Sep: p["sep"], Weight: p["weight"], Lambda: p["lambda"], K: p["k"]}, nil

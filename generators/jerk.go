@@ -63,7 +63,7 @@ func init() {
 			obsParam("x", "x'", "x''"),
 		},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0.0550, Unit: "per time unit", Source: "Sprott, Phys. Lett. A 228 (1997) 271 (memory); his 2003 table gives 0.0551 (DuncDennis/rescomp rescomp/simulations_new.py)"},
+			{Name: "nl_div_rate", Value: 0.0550, Unit: "per time unit", Source: "Sprott, Phys. Lett. A 228 (1997) 271 (memory); his 2003 table gives 0.0551 (DuncDennis/rescomp rescomp/simulations_new.py)"},
 			{Name: "lyap_sum", Value: -2.017, Unit: "per time unit", Source: "analytic: divergence of the vector field -A"},
 		},
 		DefaultClass: Chaotic,

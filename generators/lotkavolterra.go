@@ -104,7 +104,7 @@ func init() {
 			obsParam("x (prey)", "y (predators)"),
 		},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0, Unit: "per time unit", Source: "analytic: periodic orbits of a conservative planar flow"},
+			{Name: "nl_div_rate", Value: 0, Unit: "per time unit", Source: "analytic: periodic orbits of a conservative planar flow"},
 		},
 		DefaultClass: Regular,
 		threshold:    0.02,

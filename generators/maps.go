@@ -224,7 +224,7 @@ func init() {
 		Doc:    "Chaotic at r = 4; periodic windows at r = 3.5 (period 4) and r = 3.83 (period 3)." + logisticRule,
 		Params: []Param{{Name: "r", Default: 4, Min: 3, Max: 4, Doc: "growth parameter"}},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: math.Ln2, Unit: "per iteration", Source: "analytic (conjugacy to the tent map), r = 4"},
+			{Name: "nl_div_rate", Value: math.Ln2, Unit: "per iteration", Source: "analytic (conjugacy to the tent map), r = 4"},
 			{Name: "invariant_density", Value: math.NaN(), Unit: "1/(π√(x(1−x)))", Source: "Ulam & von Neumann (1947), analytic, r = 4"},
 		},
 		TimeAxis:     AxisIteration,
@@ -258,9 +258,9 @@ func init() {
 			obsParam("x", "y"),
 		},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0.41922, Unit: "per iteration", Source: "Sprott, Chaos and Time-Series Analysis (2003), appendix; confirmed: tkf/LyapunovExponents.jl src/examples/henon_map.jl"},
+			{Name: "nl_div_rate", Value: 0.41922, Unit: "per iteration", Source: "Sprott, Chaos and Time-Series Analysis (2003), appendix; confirmed: tkf/LyapunovExponents.jl src/examples/henon_map.jl"},
 			{Name: "lyap_sum", Value: math.Log(0.3), Unit: "per iteration", Source: "analytic: ln|det J| = ln b"},
-			{Name: "corr_dim", Value: 1.21, Unit: "", Source: "Grassberger & Procaccia, Physica D 9 (1983) 189; 1.21 ± 0.01 confirmed: sprott.physics.wisc.edu/chaos/henongp.htm"},
+			{Name: "nl_gp_dim", Value: 1.21, Unit: "", Source: "Grassberger & Procaccia, Physica D 9 (1983) 189; 1.21 ± 0.01 confirmed: sprott.physics.wisc.edu/chaos/henongp.htm"},
 		},
 		DefaultClass: Chaotic,
 	}, func(p map[string]float64) Henon { return Henon{A: p["a"], B: p["b"], Obs: int(p["obs"])} }, 0, 0)

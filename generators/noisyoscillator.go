@@ -119,7 +119,7 @@ func init() {
 			{Name: "period", Default: 20, Min: 4, Max: 1e5, Doc: "undamped period 2π/ω0 (samples)"},
 		},
 		Invariants: []Invariant{
-			{Name: "spectral_peak", Value: 2 * math.Pi / 20 * math.Sqrt(1-1/(2*100.0)), Unit: "rad per sample", Source: "standard result for a driven damped oscillator: ω0 √(1 - 1/(2Q²))"},
+			{Name: "peak_frequency", Value: 2 * math.Pi / 20 * math.Sqrt(1-1/(2*100.0)), Unit: "rad per sample", Source: "standard result for a driven damped oscillator: ω0 √(1 - 1/(2Q²))"},
 		},
 	}, func(p map[string]float64) (Generator, error) {
 		return NoisyOscillator{Q: p["q"], Period: p["period"]}, nil

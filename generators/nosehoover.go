@@ -65,7 +65,7 @@ func init() {
 			obsParam("x", "y", "z"),
 		},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0.014, Unit: "per time unit", Source: "Sprott, Phys. Rev. E 50 (1994) R647 (memory), chaotic sea from (0, 5, 0)"},
+			{Name: "nl_div_rate", Value: 0.014, Unit: "per time unit", Source: "Sprott, Phys. Rev. E 50 (1994) R647 (memory), chaotic sea from (0, 5, 0)"},
 			{Name: "lyap_sum", Value: 0, Unit: "per time unit", Source: "analytic: divergence z, and dH/dt = z with H = (x² + y² + z²)/2 bounded"},
 		},
 		DefaultClass: Chaotic,

@@ -71,7 +71,7 @@ func init() {
 			{Name: "beta", Default: 1, Min: 0, Max: 3, Doc: "spectral exponent β (0 white, 1 pink, 2 Brownian-like)"},
 		},
 		Invariants: []Invariant{
-			{Name: "spectral_beta", Value: 1, Unit: "", Source: "by construction: S(f) ∝ f^-β"},
+			{Name: "sc_psd_beta", Value: 1, Unit: "", Source: "by construction: S(f) ∝ f^-β"},
 		},
 		TimeAxis:     AxisIteration,
 		DefaultClass: Stochastic,

@@ -214,7 +214,7 @@ func init() {
 		Doc:    "x' = a1 + a2 x + a3 x² + a4 x y + a5 y + a6 y², y' = a7 + a8 x + a9 x² + a10 x y + a11 y + a12 y² (Sprott 1993), coefficients in [-1.2, 1.2]. Most coefficient sets let the orbit escape (ErrDiverged from Generate, Class and ClassFrom within a few iterations of leaving) or settle on a fixed point (ErrConstant); DrawQuadraticMap draws bounded sets with a wanted label. The default is the rescaled Hénon map (a1 = 1.2, a3 = -1.4/1.2, a5 = 1, a8 = 0.3). Label: chaotic when λ1 of the tangent map (10^5 iterations after 10^4 from (0.05, 0.05); per series from the drawn start after the 1000-iteration transient) exceeds 0.01 per iteration, otherwise regular.",
 		Params: params,
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0.41922, Unit: "per iteration", Source: "Hénon map rescaled: Sprott, Chaos and Time-Series Analysis (2003), appendix; confirmed: tkf/LyapunovExponents.jl src/examples/henon_map.jl"},
+			{Name: "nl_div_rate", Value: 0.41922, Unit: "per iteration", Source: "Hénon map rescaled: Sprott, Chaos and Time-Series Analysis (2003), appendix; confirmed: tkf/LyapunovExponents.jl src/examples/henon_map.jl"},
 			{Name: "lyap_sum", Value: math.Log(0.3), Unit: "per iteration", Source: "analytic: ln|det J| = ln 0.3 for the rescaled Hénon map"},
 		},
 		TimeAxis:     AxisIteration,

@@ -70,7 +70,7 @@ func init() {
 		Doc:    "Chaotic at a = b = 0.2, c = 5.7. Internal RK4 step ≤ 0.01 time units; transient 300 time units." + rule,
 		Params: params(5.7),
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0.0714, Unit: "per time unit", Source: "Sprott, Chaos and Time-Series Analysis (2003); confirmed: DuncDennis/rescomp rescomp/simulations_new.py"},
+			{Name: "nl_div_rate", Value: 0.0714, Unit: "per time unit", Source: "Sprott, Chaos and Time-Series Analysis (2003); confirmed: DuncDennis/rescomp rescomp/simulations_new.py"},
 		},
 		DefaultClass: Chaotic,
 		threshold:    0.02,

@@ -101,7 +101,7 @@ func init() {
 			{Name: "h3", Default: 0.1, Min: -10, Max: 10, Doc: "amplitude of the third harmonic"},
 		},
 		Invariants: []Invariant{
-			{Name: "hvg_mean_degree", Value: 4 * (1 - 1.0/40), Unit: "", Source: "Núñez et al., visibility algorithms review (2012) (memory): 4(1 - 1/(2T)), T = 20"},
+			{Name: "hv_deg_mean", Value: 4 * (1 - 1.0/40), Unit: "", Source: "Núñez et al., visibility algorithms review (2012) (memory): 4(1 - 1/(2T)), T = 20"},
 		},
 		TimeAxis:     AxisIteration,
 		DefaultClass: Regular,

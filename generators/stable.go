@@ -122,8 +122,8 @@ func init() {
 			{Name: "beta", Default: 0, Min: -1, Max: 1, Doc: "skewness β"},
 		},
 		Invariants: []Invariant{
-			{Name: "hvg_mean_degree", Value: 4, Unit: "", Source: "Luque et al., Phys. Rev. E 80 (2009) 046103: any continuous i.i.d. series"},
-			{Name: "perm_entropy", Value: 1, Unit: "normalised", Source: "Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102: i.i.d."},
+			{Name: "hv_deg_mean", Value: 4, Unit: "", Source: "Luque et al., Phys. Rev. E 80 (2009) 046103: any continuous i.i.d. series"},
+			{Name: "op_ent_d4", Value: 1, Unit: "normalised", Source: "Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102: i.i.d."},
 			{Name: "tail_exponent", Value: 1.5, Unit: "", Source: "standard result for stable laws: P(|X| > x) ~ x^-α"},
 		},
 	}, func(p map[string]float64) (Generator, error) {

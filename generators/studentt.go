@@ -68,9 +68,9 @@ func init() {
 		Doc:    "Independent t draws with nu degrees of freedom (nu = 1: Cauchy). Label: stochastic.",
 		Params: []Param{{Name: "nu", Default: 3, Min: 0.5, Max: 1000, Doc: "degrees of freedom ν"}},
 		Invariants: []Invariant{
-			{Name: "hvg_mean_degree", Value: 4, Unit: "", Source: "Luque et al., Phys. Rev. E 80 (2009) 046103: any continuous i.i.d. series"},
-			{Name: "hvg_lambda", Value: math.Log(1.5), Unit: "", Source: "Luque et al. (2009): any continuous i.i.d. series"},
-			{Name: "perm_entropy", Value: 1, Unit: "normalised", Source: "Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102: i.i.d."},
+			{Name: "hv_deg_mean", Value: 4, Unit: "", Source: "Luque et al., Phys. Rev. E 80 (2009) 046103: any continuous i.i.d. series"},
+			{Name: "hv_tail_exprate", Value: math.Log(1.5), Unit: "", Source: "Luque et al. (2009): any continuous i.i.d. series"},
+			{Name: "op_ent_d4", Value: 1, Unit: "normalised", Source: "Bandt & Pompe, Phys. Rev. Lett. 88 (2002) 174102: i.i.d."},
 		},
 		TimeAxis:     AxisIteration,
 		DefaultClass: Stochastic,

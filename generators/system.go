@@ -71,11 +71,11 @@ type Param struct {
 
 // Invariant is a published or analytic property of a system at its default
 // parameters, with the source it comes from (see REFERENCES.md). Names follow
-// the feature names of DESIGN.md where one exists (lyap_max, corr_dim,
-// dfa_alpha, spectral_beta, hvg_mean_degree, ...); the Unit says whether a
+// the feature names of DESIGN.md where one exists (nl_div_rate, nl_gp_dim,
+// sc_fluct_a1, sc_psd_beta, hv_deg_mean, ...); the Unit says whether a
 // rate is per iteration, per time unit or per sample.
 type Invariant struct {
-	Name   string  // e.g. "lyap_max"
+	Name   string  // e.g. "nl_div_rate"
 	Value  float64 // the published value; NaN when the invariant is a formula
 	Unit   string  // e.g. "per iteration", "per time unit"
 	Source string  // authors, journal, year; "(memory)" when recalled

@@ -147,7 +147,7 @@ func init() {
 			{Name: "dt", Default: 1, Min: 1e-9, Max: 1e9, Doc: "sample interval (time units)"},
 		},
 		Invariants: []Invariant{
-			{Name: "spectral_beta", Value: 1, Unit: "", Source: "McWhorter (1957) (memory): ≈ 1/f between 1/(π tau_max) and 1/(π tau_min)"},
+			{Name: "sc_psd_beta", Value: 1, Unit: "", Source: "McWhorter (1957) (memory): ≈ 1/f between 1/(π tau_max) and 1/(π tau_min)"},
 		},
 		TimeAxis:     AxisTime,
 		DefaultClass: Stochastic,

@@ -47,7 +47,7 @@ func init() {
 		Doc:    "Chaotic for every 1 < mu < 2 (λ = ln mu). mu = 2 is excluded because float orbits of the doubling collapse onto 0; the default 1.9999 is the documented stand-in. Label: chaotic when λ1 from the tangent map (orbit from 0.3, 10^5 iterations after 10^4) exceeds 0.01 per iteration, i.e. mu > e^0.01 ≈ 1.01.",
 		Params: []Param{{Name: "mu", Default: 1.9999, Min: 1.001, Max: 1.99999, Doc: "slope"}},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: math.Log(1.9999), Unit: "per iteration", Source: "analytic: |slope| = mu everywhere, λ = ln mu"},
+			{Name: "nl_div_rate", Value: math.Log(1.9999), Unit: "per iteration", Source: "analytic: |slope| = mu everywhere, λ = ln mu"},
 		},
 		DefaultClass: Chaotic,
 	}, func(p map[string]float64) Tent { return Tent{Mu: p["mu"]} }, 0.3)

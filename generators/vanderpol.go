@@ -53,7 +53,7 @@ func init() {
 			obsParam("x", "y = x'"),
 		},
 		Invariants: []Invariant{
-			{Name: "lyap_max", Value: 0, Unit: "per time unit", Source: "analytic: an attracting limit cycle of an autonomous flow"},
+			{Name: "nl_div_rate", Value: 0, Unit: "per time unit", Source: "analytic: an attracting limit cycle of an autonomous flow"},
 		},
 		DefaultClass: Regular,
 		threshold:    0.02,

@@ -111,7 +111,7 @@ func TestCompareShift(t *testing.T) {
 
 // TestCompareDemo checks the structure of a full comparison with a
 // parameter and distributions: the shifted features are flagged, the
-// Spearman correlation of hvg_lambda with the bias is found in both
+// Spearman correlation of hv_tail_exprate with the bias is found in both
 // groups (built in with slope 0.1 per volt against noise 0.05), the
 // curves hold the 5 levels with 6 traces each, and the pooled degree
 // distribution has median 3 for P(k) = (1/3)(2/3)^(k−3) (Luque et al.,
@@ -138,8 +138,8 @@ func TestCompareDemo(t *testing.T) {
 		t.Fatalf("curves: %d", len(res.Curves))
 	}
 	for gi := 0; gi < 2; gi++ {
-		c := res.Curves[2*2+gi] // hvg_lambda
-		if c.Feature != "hvg_lambda" || len(c.Levels) != 5 || c.Levels[0].N != 6 {
+		c := res.Curves[2*2+gi] // hv_tail_exprate
+		if c.Feature != "hv_tail_exprate" || len(c.Levels) != 5 || c.Levels[0].N != 6 {
 			t.Errorf("curve %+v", c)
 		}
 		if c.Spearman.Rho < 0.5 || c.PAdj > 0.01 {

@@ -57,7 +57,7 @@ func ExampleCompare() {
 		{File: "s3.csv", Group: "stressed", Param: nan, Values: []float64{0.74, 0.98}},
 		{File: "s4.csv", Group: "stressed", Param: nan, Values: []float64{0.70, 1.00}},
 	}
-	r, err := groups.Compare([]string{"dfa_alpha", "hvg_lambda"}, samples, groups.Options{})
+	r, err := groups.Compare([]string{"sc_fluct_a1", "hv_tail_exprate"}, samples, groups.Options{})
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -68,7 +68,7 @@ func ExampleCompare() {
 	}
 	_ = groups.WriteCSV(os.Stdout, groups.Result{}) // header only
 	// Output:
-	// dfa_alpha: n 4/4, δ = +1.00 (large), MW p = 0.0286, Holm p = 0.0571, significant false
-	// hvg_lambda: n 3/4, δ = +0.00 (negligible), MW p = 1.0000, Holm p = 1.0000, significant false
+	// sc_fluct_a1: n 4/4, δ = +1.00 (large), MW p = 0.0286, Holm p = 0.0571, significant false
+	// hv_tail_exprate: n 3/4, δ = +0.00 (negligible), MW p = 1.0000, Holm p = 1.0000, significant false
 	// group_a,group_b,feature,tested,n_a,n_b,missing_a,missing_b,median_a,median_b,q1_a,q3_a,q1_b,q3_b,iqr_a,iqr_b,mad_a,mad_b,median_diff,median_diff_mad,hodges_lehmann,cliff_delta,magnitude,ks_d,ks_p,ks_method,ks_p_adj,mw_u,mw_z,mw_p,mw_method,mw_p_adj,adjust,family,test,alpha,significant,note
 }

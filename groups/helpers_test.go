@@ -45,11 +45,11 @@ func normals(rng *rand.Rand, n int, mu, sd float64) []float64 {
 }
 
 // demoFeatures are the synthetic features of demoSamples.
-var demoFeatures = []string{"dfa_alpha", "perm_entropy", "hvg_lambda", "sample_entropy", "lyap_max", "spectral_beta"}
+var demoFeatures = []string{"sc_fluct_a1", "op_ent_d4", "hv_tail_exprate", "nl_sent_m2", "nl_div_rate", "sc_psd_beta"}
 
 // demoSamples makes a synthetic two-group data set: nPerLevel traces per
-// group at each gate bias in levels. In "stressed", dfa_alpha and
-// hvg_lambda are shifted by shift standard deviations, hvg_lambda also
+// group at each gate bias in levels. In "stressed", sc_fluct_a1 and
+// hv_tail_exprate are shifted by shift standard deviations, hv_tail_exprate also
 // rises with the bias in both groups; the other features have the same
 // distribution in both groups. Every trace carries an "hvg_degree"
 // distribution (a geometric degree sequence, P(k) ∝ (2/3)^k for fresh,
@@ -65,12 +65,12 @@ func demoSamples(seed uint64, nPerLevel int, levels []float64, shift float64) []
 		for _, v := range levels {
 			for k := 0; k < nPerLevel; k++ {
 				vals := []float64{
-					0.9 + 0.1*s + 0.1*rng.NormFloat64(),           // dfa_alpha
-					0.95 + 0.02*rng.NormFloat64(),                 // perm_entropy
-					1.2 + 0.05*s + 0.1*v + 0.05*rng.NormFloat64(), // hvg_lambda
-					math.Exp(0.3 * rng.NormFloat64()),             // sample_entropy (lognormal)
-					0.01 * rng.NormFloat64(),                      // lyap_max
-					1 + 0.2*rng.ExpFloat64(),                      // spectral_beta (skewed)
+					0.9 + 0.1*s + 0.1*rng.NormFloat64(),           // sc_fluct_a1
+					0.95 + 0.02*rng.NormFloat64(),                 // op_ent_d4
+					1.2 + 0.05*s + 0.1*v + 0.05*rng.NormFloat64(), // hv_tail_exprate
+					math.Exp(0.3 * rng.NormFloat64()),             // nl_sent_m2 (lognormal)
+					0.01 * rng.NormFloat64(),                      // nl_div_rate
+					1 + 0.2*rng.ExpFloat64(),                      // sc_psd_beta (skewed)
 				}
 				smp := Sample{File: g + "_" + ftoa(v) + "_" + itoa(k) + ".csv", Group: g, Param: v, Values: vals}
 				q := 1.0 / 3

@@ -125,15 +125,15 @@ func TestWriteMarkdown(t *testing.T) {
 	}
 	md := b.String()
 	for _, want := range []string{"# Group comparison", "## stressed (B) vs fresh (A)", "| feature | n A |",
-		"## Features versus the parameter", "### hvg_lambda", "Spearman ρ", "## Pooled distributions", "| hvg_degree | fresh |"} {
+		"## Features versus the parameter", "### hv_tail_exprate", "Spearman ρ", "## Pooled distributions", "| hvg_degree | fresh |"} {
 		if !strings.Contains(md, want) {
 			t.Errorf("missing %q", want)
 		}
 	}
-	// Sorted by adjusted MW p: dfa_alpha (shift 1.5 SD) precedes
-	// perm_entropy (no shift) in the pair table.
+	// Sorted by adjusted MW p: sc_fluct_a1 (shift 1.5 SD) precedes
+	// op_ent_d4 (no shift) in the pair table.
 	sec := md[strings.Index(md, "## stressed"):strings.Index(md, "## Features versus")]
-	if strings.Index(sec, "| dfa_alpha |") > strings.Index(sec, "| perm_entropy |") {
+	if strings.Index(sec, "| sc_fluct_a1 |") > strings.Index(sec, "| op_ent_d4 |") {
 		t.Error("pair table not sorted by adjusted p")
 	}
 }

@@ -23,13 +23,13 @@ func TestPlots(t *testing.T) {
 		fn   func(*bytes.Buffer) error
 	}{
 		{"curve", 576, 384, func(b *bytes.Buffer) error {
-			return PlotCurve(b, r, "hvg_lambda", PlotOptions{ParamLabel: "V_G (V)"})
+			return PlotCurve(b, r, "hv_tail_exprate", PlotOptions{ParamLabel: "V_G (V)"})
 		}},
 		{"grid", 3 * 384, 2 * 288, func(b *bytes.Buffer) error {
 			return PlotCurveGrid(b, r, nil, PlotOptions{ParamLabel: "V_G (V)", Title: "features versus bias"})
 		}},
 		{"grid_sized", 800, 600, func(b *bytes.Buffer) error {
-			return PlotCurveGrid(b, r, []string{"dfa_alpha", "hvg_lambda"}, PlotOptions{Width: 800 * vg.Inch / 96, Height: 600 * vg.Inch / 96, Columns: 1})
+			return PlotCurveGrid(b, r, []string{"sc_fluct_a1", "hv_tail_exprate"}, PlotOptions{Width: 800 * vg.Inch / 96, Height: 600 * vg.Inch / 96, Columns: 1})
 		}},
 		{"effects", 672, -1, func(b *bytes.Buffer) error { return PlotEffects(b, r, PlotOptions{}) }},
 		{"dist_ecdf", 576, 384, func(b *bytes.Buffer) error { return PlotDistribution(b, r, "hvg_degree", PlotOptions{}) }},
@@ -40,10 +40,10 @@ func TestPlots(t *testing.T) {
 			return PlotDistribution(b, r, "hvg_degree", PlotOptions{Kind: KindHistogram})
 		}},
 		{"feature_ecdf", 576, 384, func(b *bytes.Buffer) error {
-			return PlotFeatureDistribution(b, r, "dfa_alpha", PlotOptions{})
+			return PlotFeatureDistribution(b, r, "sc_fluct_a1", PlotOptions{})
 		}},
 		{"feature_hist", 576, 384, func(b *bytes.Buffer) error {
-			return PlotFeatureDistribution(b, r, "sample_entropy", PlotOptions{Kind: KindHistogram, Bins: 12})
+			return PlotFeatureDistribution(b, r, "nl_sent_m2", PlotOptions{Kind: KindHistogram, Bins: 12})
 		}},
 	}
 	for _, c := range cases {
@@ -90,7 +90,7 @@ func TestPlotErrors(t *testing.T) {
 	}
 	noParam := r
 	noParam.HasParam, noParam.Curves = false, nil
-	if err := PlotCurve(&b, noParam, "dfa_alpha", PlotOptions{}); !errors.Is(err, ErrNothingToPlot) {
+	if err := PlotCurve(&b, noParam, "sc_fluct_a1", PlotOptions{}); !errors.Is(err, ErrNothingToPlot) {
 		t.Errorf("no parameter: %v", err)
 	}
 	if err := PlotEffects(&b, Result{}, PlotOptions{}); !errors.Is(err, ErrNothingToPlot) {

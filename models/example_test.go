@@ -53,9 +53,9 @@ func Example() {
 		fmt.Println(err)
 		return
 	}
-	credible, _ := v.Get("lyap_credible")
-	lyap, _ := v.Get("lyap_max")
-	fmt.Printf("lyap_credible = %g, lyap_max = %.4f per sample, %d features missing\n", credible, lyap, len(v.Missing()))
+	credible, _ := v.Get("nl_div_ok")
+	lyap, _ := v.Get("nl_div_rate")
+	fmt.Printf("nl_div_ok = %g, nl_div_rate = %.4f per sample, %d features missing\n", credible, lyap, len(v.Missing()))
 
 	// The embedded model, refused if its feature schema is not the
 	// running catalogue's (as 'tracesift classify' does).
@@ -89,6 +89,6 @@ func Example() {
 	// Output:
 	// D01_stressed_Vg1.20.csv: 4096 samples of Id [A] every 0.0001 s
 	// HVG: 8154 edges, tail rate λ = 0.65
-	// lyap_credible = 1, lyap_max = 0.0045 per sample, 0 features missing
+	// nl_div_ok = 1, nl_div_rate = 0.0045 per sample, 0 features missing
 	// verdict: chaotic (P ≥ 0.7: true), novelty below the limit: true, warnings: 0
 }

@@ -27,7 +27,7 @@ func BenchmarkBuild10k(b *testing.B) { benchBuild(b, Options{Seed: 1}) }
 // asymmetry, forecast decay, permutation entropy, HVG tail rate) with the
 // 159 surrogates Holm's adjustment over four needs: the cost of --stat.
 func BenchmarkBuild10kFeatureTests(b *testing.B) {
-	benchBuild(b, Options{Seed: 1, Stats: []string{"asym_abs", "pred_decay", "perm_entropy", "hvg_lambda"}})
+	benchBuild(b, Options{Seed: 1, Stats: []string{"nl_trev_1", "nl_fc_drop_10", "op_ent_d4", "hv_tail_exprate"}})
 }
 
 // BenchmarkBuild10kNoSurrogates is everything but the surrogate test.

@@ -170,8 +170,8 @@ func TestReportIsWellFormedAndComplete(t *testing.T) {
 	if svgs != 9 {
 		t.Errorf("%d figures, want 9", svgs)
 	}
-	for _, want := range []string{Caution, "hvg_lambda", "asym_abs", "Hénon", "fitted Gaussian", "(1/3)(2/3)^(k−2)", "tracesift test",
-		"Determinism test", "pred_rho_tau", "asym_tau", "Surrogate test of determinism (section 6):", "Model and test."} {
+	for _, want := range []string{Caution, "hv_tail_exprate", "nl_trev_1", "Hénon", "fitted Gaussian", "(1/3)(2/3)^(k−2)", "tracesift test",
+		"Determinism test", "nl_fc_rho_tau", "nl_trev_tau", "Surrogate test of determinism (section 6):", "Model and test."} {
 		if !bytes.Contains(html, []byte(esc(want))) {
 			t.Errorf("report does not mention %q", want)
 		}
@@ -246,7 +246,7 @@ func TestReportIsDeterministic(t *testing.T) {
 	// the other tests.
 	var mu sync.Mutex
 	var lastDone, lastTotal int
-	opts := Options{Seed: 3, Stats: []string{"asym_abs", "hvg_lambda"}, Progress: func(done, total int) {
+	opts := Options{Seed: 3, Stats: []string{"nl_trev_1", "hv_tail_exprate"}, Progress: func(done, total int) {
 		mu.Lock()
 		defer mu.Unlock()
 		lastDone, lastTotal = max(lastDone, done), total

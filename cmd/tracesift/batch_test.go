@@ -67,11 +67,11 @@ func TestSurrogatePlotFailureKeepsResults(t *testing.T) {
 	dir := t.TempDir()
 	h := writeSeries(t, dir, "h.csv", "henon", "--n", "600", "--seed", "2")
 	plot := filepath.Join(dir, "no", "p.png")
-	out, stderr, code := runCLI(t, "", "surrogate", "--stat", "perm_entropy", "--count", "19", "--plot", plot, h)
+	out, stderr, code := runCLI(t, "", "surrogate", "--stat", "op_ent_d4", "--count", "19", "--plot", plot, h)
 	if code != exitPartial {
 		t.Errorf("exit %d, want %d", code, exitPartial)
 	}
-	if !strings.Contains(out, "perm_entropy") || !strings.Contains(out, "null hypothesis") {
+	if !strings.Contains(out, "op_ent_d4") || !strings.Contains(out, "null hypothesis") {
 		t.Errorf("results not printed: %q", out)
 	}
 	if !strings.Contains(stderr, "cannot write "+plot) || strings.Count(stderr, "\n") != 1 {
@@ -92,7 +92,7 @@ func TestMinLengthOnlyWhereItHelps(t *testing.T) {
 		case "report":
 			args = append(args, "-o", filepath.Join(dir, "r.html"))
 		case "surrogate":
-			args = append(args, "--stat", "perm_entropy")
+			args = append(args, "--stat", "op_ent_d4")
 		}
 		_, stderr, code := runCLI(t, "", args...)
 		if code != exitUsage || !strings.Contains(stderr, "--min-length 50: this command's estimators need at least 256 samples per trace") {
@@ -144,11 +144,11 @@ func TestTrainOnDemoLabelsAlone(t *testing.T) {
 	if code != exitOK {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
-	if !strings.Contains(out, "left out of the model (missing in every training series, so classify never asks for them): lyap_max") {
+	if !strings.Contains(out, "left out of the model (missing in every training series, so classify never asks for them): nl_div_rate") {
 		t.Errorf("training summary does not report the dropped feature:\n%s", out)
 	}
 	model, err := classifier.Load(m)
-	if err != nil || len(model.Training.Dropped) == 0 || model.Training.Dropped[0] != "lyap_max" {
+	if err != nil || len(model.Training.Dropped) == 0 || model.Training.Dropped[0] != "nl_div_rate" {
 		t.Fatalf("model: err %v, dropped %v", err, model.Training.Dropped)
 	}
 	stdout, stderr, code := runCLI(t, "", "classify", "--model", m, "--format", "json", filepath.Join(demo, "stressed", "D01_stressed_Vg1.20.csv"))
@@ -160,7 +160,7 @@ func TestTrainOnDemoLabelsAlone(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, w := range line.Warnings {
-		if strings.Contains(w, "lyap_max") {
+		if strings.Contains(w, "nl_div_rate") {
 			t.Errorf("classify mentions the dropped feature: %q", w)
 		}
 	}

@@ -15,7 +15,7 @@ import (
 
 // surveyFast are the flags that keep the demo survey quick in tests: the
 // increment family and two HVG metrics, two surrogates per method.
-var surveyFast = []string{"--metrics", "increments,hvg_lambda,hvg_clustering_mean", "--surrogates", "2", "--seed", "3"}
+var surveyFast = []string{"--metrics", "increments,hv_tail_exprate,hv_clust_mean", "--surrogates", "2", "--seed", "3"}
 
 // demoCampaign copies the demo campaign description into a temporary
 // directory with links to the demo's trace directories, so descriptions
@@ -154,7 +154,7 @@ func TestSurveyDemo(t *testing.T) {
 		names = append(names, n)
 	}
 	slices.Sort(names)
-	for _, n := range []string{"traces.csv", "traces.jsonl", "tests.csv", "tests.jsonl", "distributions.csv", "summary.md", "level_0.60.md", "level_0.90.md", "level_1.20.md", "figures/inc_kurt.png"} {
+	for _, n := range []string{"traces.csv", "traces.jsonl", "tests.csv", "tests.jsonl", "distributions.csv", "summary.md", "level_0.60.md", "level_0.90.md", "level_1.20.md", "figures/dx_kurt_ex.png"} {
 		if len(a[n]) == 0 {
 			t.Errorf("%s missing or empty; outputs %q", n, names)
 		}

@@ -85,10 +85,10 @@ its rank: the test depends only on the order of the values). Two statistics
 are computed on the trace and on M surrogates, with the delay τ and
 dimension d chosen once on the trace and used for every surrogate:
 
-  pred_rho_tau  correlation of simplex forecasts one delay ahead with the
+  nl_fc_rho_tau  correlation of simplex forecasts one delay ahead with the
                 truth (one-sided: the trace is more predictable than its
                 surrogates)
-  asym_tau      |skewness| of the increments over one delay (one-sided on
+  nl_trev_tau      |skewness| of the increments over one delay (one-sided on
                 |·|: every surrogate is time-reversible, so either sign
                 of asymmetry counts)
 

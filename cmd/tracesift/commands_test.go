@@ -60,7 +60,7 @@ func TestFeaturesFormats(t *testing.T) {
 	// A file named twice is measured once (the batch is de-duplicated).
 	out, _, _ = runCLI(t, "", "features", "--format", "csv", h, h)
 	rows := strings.Split(strings.TrimSpace(out), "\n")
-	if len(rows) != 2 || !strings.HasPrefix(rows[0], "file,samples,lyap_max,") {
+	if len(rows) != 2 || !strings.HasPrefix(rows[0], "file,samples,nl_div_rate,") {
 		t.Fatalf("csv: %q", out)
 	}
 }
@@ -94,7 +94,7 @@ func TestFeaturesOutputFileIsAtomic(t *testing.T) {
 func TestSurrogateJSON(t *testing.T) {
 	dir := t.TempDir()
 	h := writeSeries(t, dir, "henon.csv", "henon", "--n", "1000", "--seed", "2")
-	out, stderr, code := runCLI(t, "", "surrogate", h, "--method", "iaaft", "--count", "19", "--stat", "asym_abs", "--format", "json", "--side", "upper")
+	out, stderr, code := runCLI(t, "", "surrogate", h, "--method", "iaaft", "--count", "19", "--stat", "nl_trev_1", "--format", "json", "--side", "upper")
 	if code != exitOK {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
@@ -127,8 +127,8 @@ func TestSurrogateUsageErrors(t *testing.T) {
 	for _, c := range [][]string{
 		{"surrogate", h},
 		{"surrogate", h, "--stat", "nosuch"},
-		{"surrogate", h, "--stat", "asym_abs", "--method", "magic"},
-		{"surrogate", h, "--stat", "asym_abs", "--count", "0"},
+		{"surrogate", h, "--stat", "nl_trev_1", "--method", "magic"},
+		{"surrogate", h, "--stat", "nl_trev_1", "--count", "0"},
 	} {
 		if _, stderr, code := runCLI(t, "", c...); code != exitUsage || strings.Count(strings.TrimSpace(stderr), "\n") != 0 {
 			t.Errorf("%v: exit %d, stderr %q", c[2:], code, stderr)
@@ -359,8 +359,8 @@ func TestCompareSameAndDifferentProcesses(t *testing.T) {
 	// White noise versus AR(1) φ = 0.9: DFA α 0.5 vs ≈1 at these scales
 	// (Peng et al. 1994) and many other features differ.
 	out, _, _ = runCLI(t, "", "compare", "--group", g("a"), "--group", g("c"), "--param", `Vg([0-9.]+)`, "-o", filepath.Join(dir, "diff"))
-	if !strings.Contains(out, "dfa_alpha") {
-		t.Errorf("white vs AR(1): dfa_alpha not found to differ: %s", out)
+	if !strings.Contains(out, "sc_fluct_a1") {
+		t.Errorf("white vs AR(1): sc_fluct_a1 not found to differ: %s", out)
 	}
 	for _, f := range []string{"summary.md", "comparison.csv", "comparison.json", "effects.png", "curves.png", "curves.csv", "hvg_local_clustering.png", "nvg_degree.png"} {
 		if st, err := os.Stat(filepath.Join(dir, "diff", f)); err != nil || st.Size() == 0 {

@@ -23,10 +23,10 @@ func init() { addCommand(newFeaturesCmd) }
 // coreFeatures are the names DESIGN.md promises scripts; `features` prints
 // them unless --all asks for the whole vector.
 var coreFeatures = []string{
-	"lyap_max", "corr_dim", "dfa_alpha", "hurst_rs", "spectral_beta",
-	"perm_entropy", "stat_complexity", "sample_entropy", "zero_one_k",
-	"hvg_mean_degree", "hvg_lambda", "hvg_clustering_mean",
-	"nvg_mean_degree", "nvg_gamma", "nvg_clustering_mean", "nvg_modularity", "nvg_assortativity",
+	"nl_div_rate", "nl_gp_dim", "sc_fluct_a1", "sc_range_h", "sc_psd_beta",
+	"op_ent_d4", "op_jsc_d4", "nl_sent_m2", "nl_k01",
+	"hv_deg_mean", "hv_tail_exprate", "hv_clust_mean",
+	"nv_deg_mean", "nv_tail_powexp", "nv_clust_mean", "nv_comm_q", "nv_deg_assort",
 }
 
 type featuresOptions struct {

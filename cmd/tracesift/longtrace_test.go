@@ -128,16 +128,16 @@ func TestFeaturesWindowsAndEdgeBudget(t *testing.T) {
 	if l.Windows != 3 || l.WindowLength != 1000 || len(l.Spread) != len(coreFeatures) {
 		t.Fatalf("--window 1024 on 3000 samples: %d windows of %d, %d spreads; want 3 of 1000 and one spread per feature", l.Windows, l.WindowLength, len(l.Spread))
 	}
-	if s := l.Spread["hvg_mean_degree"]; s.Measured != 3 || *s.Min > *l.Features["hvg_mean_degree"] || *s.Max < *l.Features["hvg_mean_degree"] {
-		t.Errorf("hvg_mean_degree %v outside its range over windows %+v", *l.Features["hvg_mean_degree"], s)
+	if s := l.Spread["hv_deg_mean"]; s.Measured != 3 || *s.Min > *l.Features["hv_deg_mean"] || *s.Max < *l.Features["hv_deg_mean"] {
+		t.Errorf("hv_deg_mean %v outside its range over windows %+v", *l.Features["hv_deg_mean"], s)
 	}
 	if l := parse("--window", "0", b); l.Windows != 0 || l.Spread != nil {
 		t.Errorf("--window 0: %d windows, spread %v; want the whole trace", l.Windows, l.Spread)
 	}
 	l = parse("--max-edges", "5000", b)
-	why := l.Missing["nvg_mean_degree"]
-	if l.Features["nvg_mean_degree"] != nil || !strings.Contains(why, "--max-edges") || !strings.Contains(why, "--window") || strings.Contains(why, "Options.MaxEdges") {
-		t.Errorf("nvg_mean_degree past a 5000-edge budget: reason %q, want one naming --max-edges and --window", why)
+	why := l.Missing["nv_deg_mean"]
+	if l.Features["nv_deg_mean"] != nil || !strings.Contains(why, "--max-edges") || !strings.Contains(why, "--window") || strings.Contains(why, "Options.MaxEdges") {
+		t.Errorf("nv_deg_mean past a 5000-edge budget: reason %q, want one naming --max-edges and --window", why)
 	}
 	for _, w := range []string{"100", "-1"} {
 		if _, stderr, code := runCLI(t, "", "features", "--window", w, b); code != exitUsage || !strings.Contains(stderr, "--window") {

@@ -60,7 +60,7 @@ The verdict is a screening aid, not a device qualification result.`,
 		Example: `  tracesift report testdata/demo/stressed/D01_stressed_Vg1.20.csv -o D01.html
   tracesift report trace.csv --model lab.model --seed 7 -o trace.html
   tracesift report trace.csv --surrogates -1 -o quick.html
-  tracesift report trace.csv --stat perm_entropy --stat hvg_lambda -o trace.html`,
+  tracesift report trace.csv --stat op_ent_d4 --stat hv_tail_exprate -o trace.html`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			return runReport(e, args[0], &o)

@@ -42,7 +42,7 @@ func TestReportWritesHTML(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "r.html")
 	// One cheap statistic and 39 surrogates (enough for one two-sided test
 	// at α = 0.05) keep the test fast.
-	stdout, stderr, code := runCLI(t, "", "report", demoTrace, "--model", mp, "--stat", "asym_abs", "--surrogates", "39", "-o", out)
+	stdout, stderr, code := runCLI(t, "", "report", demoTrace, "--model", mp, "--stat", "nl_trev_1", "--surrogates", "39", "-o", out)
 	if code != exitOK {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
@@ -59,14 +59,14 @@ func TestReportWritesHTML(t *testing.T) {
 			t.Errorf("section %s missing", id)
 		}
 	}
-	for _, want := range []string{"4096", "Id", "0.0001 s", "asym_abs", "not a device qualification result", "tracesift " + version} {
+	for _, want := range []string{"4096", "Id", "0.0001 s", "nl_trev_1", "not a device qualification result", "tracesift " + version} {
 		if !strings.Contains(html, want) {
 			t.Errorf("report lacks %q", want)
 		}
 	}
 	// Same file, model and seed: same bytes.
 	out2 := filepath.Join(t.TempDir(), "r2.html")
-	if _, stderr, code := runCLI(t, "", "report", demoTrace, "--model", mp, "--stat", "asym_abs", "--surrogates", "39", "-o", out2); code != exitOK {
+	if _, stderr, code := runCLI(t, "", "report", demoTrace, "--model", mp, "--stat", "nl_trev_1", "--surrogates", "39", "-o", out2); code != exitOK {
 		t.Fatalf("second run: exit %d: %s", code, stderr)
 	}
 	if b2, _ := os.ReadFile(out2); string(b2) != html {

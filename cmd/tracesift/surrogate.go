@@ -51,11 +51,11 @@ are tested. FT-based surrogates of a trace whose two ends differ get
 spurious high frequencies: --end-match tests the longest sub-series whose
 ends match instead, and the report says what was cut.
 
-Statistics are feature names ('tracesift features --list'), e.g. asym_abs,
-pred_rho1, pred_decay, perm_entropy, hvg_lambda, lyap_max.`,
-		Example: `  tracesift surrogate testdata/demo/stressed/D01_stressed_Vg1.20.csv --method iaaft --count 99 --stat asym_abs --stat pred_decay
-  tracesift generate henon --n 2000 | tracesift surrogate - --stat asym_abs --format json
-  tracesift surrogate trace.csv --stat hvg_lambda --plot hvg_lambda.png --end-match`,
+Statistics are feature names ('tracesift features --list'), e.g. nl_trev_1,
+nl_fc_rho_1, nl_fc_drop_10, op_ent_d4, hv_tail_exprate, nl_div_rate.`,
+		Example: `  tracesift surrogate testdata/demo/stressed/D01_stressed_Vg1.20.csv --method iaaft --count 99 --stat nl_trev_1 --stat nl_fc_drop_10
+  tracesift generate henon --n 2000 | tracesift surrogate - --stat nl_trev_1 --format json
+  tracesift surrogate trace.csv --stat hv_tail_exprate --plot hv_tail_exprate.png --end-match`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			return runSurrogate(e, args[0], &o)
@@ -101,7 +101,7 @@ func runSurrogate(e *env, file string, o *surrogateOptions) error {
 		return usagef("--alpha %g: want 0 < alpha < 1", o.alpha)
 	}
 	if len(o.stats) == 0 {
-		return usagef("no statistic: give --stat NAME (e.g. --stat asym_abs); 'tracesift features --list' shows the names")
+		return usagef("no statistic: give --stat NAME (e.g. --stat nl_trev_1); 'tracesift features --list' shows the names")
 	}
 	var stats []surrogate.Statistic
 	seen := map[string]bool{}

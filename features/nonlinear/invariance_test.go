@@ -34,14 +34,14 @@ func TestScaleOffsetInvariance(t *testing.T) {
 			}
 			return r.Lambda, nil
 		}},
-		{"corr_dim", true, false, func(x []float64) (float64, error) {
+		{"nl_gp_dim", true, false, func(x []float64) (float64, error) {
 			r, err := CorrelationDimension(x, CorrDimOptions{})
 			if err != nil {
 				return 0, err
 			}
 			return r.D2, nil
 		}},
-		{"zero_one_k", true, false, func(x []float64) (float64, error) {
+		{"nl_k01", true, false, func(x []float64) (float64, error) {
 			r, err := ZeroOne(x, ZeroOneOptions{})
 			if err != nil {
 				return 0, err
@@ -55,7 +55,7 @@ func TestScaleOffsetInvariance(t *testing.T) {
 			}
 			return r.Rho1 + 10*r.Decay, nil
 		}},
-		{"sample_entropy", true, false, func(x []float64) (float64, error) {
+		{"nl_sent_m2", true, false, func(x []float64) (float64, error) {
 			r, err := SampleEntropy(x, SampEnOptions{})
 			if err != nil {
 				return 0, err

@@ -4,6 +4,8 @@ import (
 	"math"
 	"math/bits"
 	"slices"
+
+	"github.com/tracesift/tracesift/internal/order"
 )
 
 // kdLeafSize is the largest number of points a k-d tree leaf holds.
@@ -121,7 +123,7 @@ func (b *delayBuilder) build(start, end int, outer []float64) int32 {
 		for k := range key {
 			key[k] = b.coord(start+k, split)
 		}
-		selectNthKeyed(key, t.ids[start:end], mid-start)
+		order.SelectKeyed(key, t.ids[start:end], mid-start)
 		sv := b.key[mid]
 		t.splitDim[me], t.splitVal[me] = int8(split), sv
 		keep := outer[d+split]
@@ -154,48 +156,6 @@ func (b *delayBuilder) build(start, end int, outer []float64) int32 {
 		}
 	}
 	return me
-}
-
-// selectNthKeyed reorders key (with the point indices alongside) so that
-// key[k] holds the k-th smallest, smaller-or-equal ones before it and
-// greater-or-equal ones after (Hoare's selection, median-of-three pivot).
-func selectNthKeyed(key []float64, ids []int32, k int) {
-	lo, hi := 0, len(key)-1
-	for lo < hi {
-		m := lo + (hi-lo)/2
-		a, b, e := key[lo], key[m], key[hi]
-		pivot := b
-		if (a <= b) == (b <= e) {
-			pivot = b
-		} else if (b <= a) == (a <= e) {
-			pivot = a
-		} else {
-			pivot = e
-		}
-		i, j := lo, hi
-		for i <= j {
-			for key[i] < pivot {
-				i++
-			}
-			for key[j] > pivot {
-				j--
-			}
-			if i <= j {
-				key[i], key[j] = key[j], key[i]
-				ids[i], ids[j] = ids[j], ids[i]
-				i++
-				j--
-			}
-		}
-		switch {
-		case k <= j:
-			hi = j
-		case k >= i:
-			lo = i
-		default:
-			return
-		}
-	}
 }
 
 // boxLower returns a lower bound of the distance from q to any point of node

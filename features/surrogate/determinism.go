@@ -23,7 +23,7 @@ const (
 	// automatic delay embedding needs 200 samples, and end matching may
 	// keep only 90% of the stretch.
 	DeterminismMinLength = 256
-	// maxForecastDelay caps the forecast horizon, as the pred_rho_tau
+	// maxForecastDelay caps the forecast horizon, as the nl_fc_rho_tau
 	// feature does.
 	maxForecastDelay = 50
 )
@@ -33,10 +33,10 @@ const (
 const (
 	// StatPredSkill is the simplex forecast correlation one embedding
 	// delay ahead.
-	StatPredSkill = "pred_rho_tau"
+	StatPredSkill = "nl_fc_rho_tau"
 	// StatReversal is |skewness| of the increments over one embedding
 	// delay.
-	StatReversal = "asym_tau"
+	StatReversal = "nl_trev_tau"
 )
 
 // determinismEmbed caps the work of the embedding search as the feature
@@ -176,12 +176,12 @@ var determinismStats = []string{StatPredSkill, StatReversal}
 // transform of the trace. Two statistics are then computed on the
 // Gaussianised stretch and on M IAAFT surrogates of it:
 //
-//   - pred_rho_tau: the correlation between simplex forecasts one
+//   - nl_fc_rho_tau: the correlation between simplex forecasts one
 //     embedding delay τ ahead (at most 50 samples) and the truth
 //     (Sugihara & May, Nature 344 (1990) 734). Determinism makes the trace
 //     more predictable than surrogates with its spectrum and values:
 //     one-sided, upper.
-//   - asym_tau: |⟨Δ³⟩|/⟨Δ²⟩^{3/2} with Δ_t = x_{t+τ} − x_t, the
+//   - nl_trev_tau: |⟨Δ³⟩|/⟨Δ²⟩^{3/2} with Δ_t = x_{t+τ} − x_t, the
 //     time-reversal asymmetry of the increments over one delay. Every
 //     surrogate is time-reversible, so the signed statistic has a null
 //     distribution symmetric about 0 and its sign depends only on the sign

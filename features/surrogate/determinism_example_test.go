@@ -24,8 +24,8 @@ func ExampleDeterminism() {
 	fmt.Printf("M = %d, rejected: %v\n", r.Count, r.Rejected)
 	fmt.Println(r.Agreement("chaotic").Kind)
 	// Output:
-	// pred_rho_tau: p = 0.025, Holm 0.050
-	// asym_tau: p = 0.025, Holm 0.050
+	// nl_fc_rho_tau: p = 0.025, Holm 0.050
+	// nl_trev_tau: p = 0.025, Holm 0.050
 	// M = 39, rejected: true
 	// agree
 }

@@ -12,7 +12,7 @@ import (
 // self-loop, weight-to-community and flag arrays, and an n-sized
 // modularity at the end), kept so that TestLouvainMatchesLegacy can check
 // that the leaner one gives the same partition, bit for bit, on graphs of
-// every regime: nvg_modularity feeds the default model.
+// every regime: nv_comm_q feeds the default model.
 func legacyLouvain(g *Graph, opts LouvainOptions) (Partition, error) {
 	n := g.Len()
 	p := Partition{Modularity: math.NaN()}

@@ -52,6 +52,55 @@ func Select(x []float64, k int) float64 {
 	return x[k]
 }
 
+// SelectKeyed reorders key, and ids alongside it, so that key[k] holds the
+// value of sorted rank k, smaller-or-equal keys before it and
+// greater-or-equal ones after: Hoare's selection as in Select, but the
+// median-of-three pivot is read, not swapped into place, and every swap of
+// keys is repeated in ids (the k-d tree's median split carries point
+// indices this way). len(ids) must equal len(key); k outside [0, len(key))
+// leaves both unchanged.
+func SelectKeyed[I any](key []float64, ids []I, k int) {
+	if k < 0 || k >= len(key) {
+		return
+	}
+	lo, hi := 0, len(key)-1
+	for lo < hi {
+		m := lo + (hi-lo)/2
+		a, b, e := key[lo], key[m], key[hi]
+		pivot := b
+		if (a <= b) == (b <= e) {
+			pivot = b
+		} else if (b <= a) == (a <= e) {
+			pivot = a
+		} else {
+			pivot = e
+		}
+		i, j := lo, hi
+		for i <= j {
+			for key[i] < pivot {
+				i++
+			}
+			for key[j] > pivot {
+				j--
+			}
+			if i <= j {
+				key[i], key[j] = key[j], key[i]
+				ids[i], ids[j] = ids[j], ids[i]
+				i++
+				j--
+			}
+		}
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return
+		}
+	}
+}
+
 func nan() float64 {
 	var zero float64
 	return zero / zero

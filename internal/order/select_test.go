@@ -34,3 +34,37 @@ func TestSelectMatchesSort(t *testing.T) {
 		t.Errorf("k out of range: %v, want NaN", v)
 	}
 }
+
+// TestSelectKeyedMatchesSort: SelectKeyed puts the value of sorted rank k
+// (slices.Sort as the reference) at k, partitions around it, and keeps
+// every id with its key.
+func TestSelectKeyedMatchesSort(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	for _, n := range []int{1, 2, 3, 10, 101, 1000} {
+		for trial := 0; trial < 20; trial++ {
+			key := make([]float64, n)
+			ids := make([]int32, n)
+			orig := make([]float64, n)
+			for i := range key {
+				key[i] = math.Round(10 * rng.NormFloat64()) // ties on purpose
+				ids[i] = int32(i)
+				orig[i] = key[i]
+			}
+			s := slices.Clone(key)
+			slices.Sort(s)
+			k := rng.IntN(n)
+			SelectKeyed(key, ids, k)
+			if key[k] != s[k] {
+				t.Fatalf("n=%d k=%d: %v, want %v", n, k, key[k], s[k])
+			}
+			for i := range key {
+				if (i < k && key[i] > key[k]) || (i > k && key[i] < key[k]) {
+					t.Fatalf("n=%d k=%d: not partitioned at %d", n, k, i)
+				}
+				if orig[ids[i]] != key[i] {
+					t.Fatalf("n=%d k=%d: id %d no longer beside its key", n, k, ids[i])
+				}
+			}
+		}
+	}
+}

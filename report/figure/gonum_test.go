@@ -17,7 +17,7 @@ import (
 // identifiers of the bench suite, and a legend.
 func longLabelPlot(t *testing.T) (*Plot, []string) {
 	t.Helper()
-	names := []string{"lyap_max/logistic", "spectral_beta/telegraph-sum", "lag1_autocorrelation/telegraph", "x"}
+	names := []string{"nl_div_rate/logistic", "sc_psd_beta/telegraph-sum", "lag1_autocorrelation/telegraph", "x"}
 	p := NewPlot()
 	p.Title.Text = "Long labels"
 	p.X.Label.Text = "deviation"
