@@ -132,6 +132,8 @@ func batch[R any](e *env, what string, inputs []string, work func(i int, name st
 		if emitErr == nil {
 			emitErr = emit(i, name, slots[i].r)
 		}
+		var zero R
+		slots[i].r = zero // emitted: memory stays flat in the number of inputs
 	}
 	wg.Wait()
 	progress.finish()

@@ -14,6 +14,7 @@ import (
 
 	"github.com/spf13/pflag"
 
+	"github.com/tracesift/tracesift/internal/atomicfile"
 	"github.com/tracesift/tracesift/internal/filelist"
 	"github.com/tracesift/tracesift/internal/journal"
 	"github.com/tracesift/tracesift/trace"
@@ -51,10 +52,10 @@ func (o *journalOptions) resolve(out string) (string, error) {
 		return "", nil
 	case o.path != "":
 		return o.path, nil
-	case out != "" && out != "-":
+	case out != "" && out != "-" && !atomicfile.IsSpecial(out):
 		return out + ".journal", nil
 	case o.resume:
-		return "", usagef("--resume needs a journal: give -o FILE (journal FILE.journal) or --journal FILE")
+		return "", usagef("--resume needs a journal: give -o FILE (journal FILE.journal; not a device or pipe) or --journal FILE")
 	}
 	return "", nil
 }
