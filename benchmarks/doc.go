@@ -15,7 +15,7 @@
 //     project's own tests use. Every row carries the source of the value
 //     and of the tolerance. The estimators are the project's own
 //     (features/nonlinear, features/scaling, features/ordinal,
-//     features/visibility); nothing is re-implemented here.
+//     networks, networks/visibility); nothing is re-implemented here.
 //   - Classification: accuracy, confusion matrices, the undetermined rate
 //     and a per-system breakdown versus series length and observational
 //     signal-to-noise ratio, on reference-plan series drawn with seeds the

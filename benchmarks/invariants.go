@@ -11,8 +11,9 @@ import (
 	"github.com/tracesift/tracesift/features/nonlinear"
 	"github.com/tracesift/tracesift/features/ordinal"
 	"github.com/tracesift/tracesift/features/scaling"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/generators"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 // InvariantRow is the recovery of one published or analytic invariant of a
@@ -197,7 +198,7 @@ func measureHVGMeanDegree(x []float64) (measurement, error) {
 	if err != nil {
 		return measurement{}, err
 	}
-	return measurement{v: visibility.Degrees(g).Mean}, nil
+	return measurement{v: networks.Degrees(g).Mean}, nil
 }
 
 func measureHVGLambda(x []float64) (measurement, error) {
@@ -205,8 +206,8 @@ func measureHVGLambda(x []float64) (measurement, error) {
 	if err != nil {
 		return measurement{}, err
 	}
-	t, err := visibility.ExponentialTail(g, visibility.TailOptions{})
-	if errors.Is(err, visibility.ErrTooFewPoints) {
+	t, err := networks.ExponentialTail(g, networks.TailOptions{})
+	if errors.Is(err, networks.ErrTooFewPoints) {
 		return measurement{v: math.NaN(), why: err.Error()}, nil
 	}
 	return measurement{v: t.Lambda, aux: t.StdErr}, err
@@ -217,8 +218,8 @@ func measureNVGGamma(x []float64) (measurement, error) {
 	if err != nil {
 		return measurement{}, err
 	}
-	p, err := visibility.PowerLaw(g, visibility.PowerLawOptions{})
-	if errors.Is(err, visibility.ErrTooFewPoints) {
+	p, err := networks.PowerLaw(g, networks.PowerLawOptions{})
+	if errors.Is(err, networks.ErrTooFewPoints) {
 		return measurement{v: math.NaN(), why: err.Error()}, nil
 	}
 	return measurement{v: p.Gamma, aux: p.StdErr}, err
@@ -269,10 +270,10 @@ const (
 	tolSpecFBM   = "bench choice, no project test: ± 0.07 as for fGn in features/scaling spectral_slope_test.go"
 	tolSpecPL    = "bench choice, no project test of this estimator on it: ± 0.05 as generators noise_test.go allows for the periodogram slope of 1/f^β noise"
 	tolSpecTS    = "bench choice, no project test: ± 0.15 (a sum of K Lorentzians is 1/f only approximately, McWhorter's band; seed spread ≈ 0.1 measured)"
-	tolHVGMean   = "derived (features/visibility hvg_test.go): the finite-n expectation 4 − 4H_n/n differs from 4 by 4H_n/n; plus 0.5/√n for the replicate spread"
+	tolHVGMean   = "derived (networks/visibility hvg_test.go): the finite-n expectation 4 − 4H_n/n differs from 4 by 4H_n/n; plus 0.5/√n for the replicate spread"
 	tolHVGSine   = "bench choice, no project test: ± 0.01 (the mean degree of an exactly periodic series converges as O(T/n))"
-	tolHVGLambda = "features/visibility hvg_test.go: 4 standard errors of the geometric maximum-likelihood fit (median StdErr of the runs)"
-	tolNVG       = "features/visibility nvg_test.go: ± 0.25 at n = 2^16 (finite-size excess of the KS-chosen tail)"
+	tolHVGLambda = "networks/visibility hvg_test.go: 4 standard errors of the geometric maximum-likelihood fit (median StdErr of the runs)"
+	tolNVG       = "networks/visibility nvg_test.go: ± 0.25 at n = 2^16 (finite-size excess of the KS-chosen tail)"
 	tolPE        = "derived (features/ordinal ordinal_test.go): 1 − H must lie within 2× the i.i.d. plug-in bias (d!−1)/(2W ln d!) at the stated length"
 	tolSC        = "derived (features/ordinal ordinal_test.go): C ≈ Q0·ln(d!)·(1 − H)·H/4, bounded with 1 − H ≤ 2× the i.i.d. bias"
 	tolForbidden = "exact: the strictly decreasing triple is the only order-3 pattern the map cannot produce"
@@ -416,7 +417,7 @@ func invariantSpecs() ([]invariantSpec, error) {
 	hvgMeanTol := func(n int, _ float64) float64 {
 		return 4*harmonic(n)/float64(n) + 0.5/math.Sqrt(float64(n))
 	}
-	hvgEst := "visibility.Horizontal + visibility.Degrees (mean degree)"
+	hvgEst := "visibility.Horizontal + networks.Degrees (mean degree)"
 	for _, sys := range []string{"white", "student-t", "stable", "iid"} {
 		fromRegistry(invariantSpec{id: "hv_deg_mean/" + sys, system: sys, name: "hv_deg_mean", estimator: hvgEst, check: CheckValue,
 			tol: hvgMeanTol, tolSource: tolHVGMean, n: nHVG, measure: measureHVGMeanDegree})
@@ -424,13 +425,13 @@ func invariantSpecs() ([]invariantSpec, error) {
 	fromRegistry(invariantSpec{id: "hv_deg_mean/sine", system: "sine", name: "hv_deg_mean", estimator: hvgEst, check: CheckValue,
 		tol: fixedTol(0.01), tolSource: tolHVGSine, n: nHVG, measure: measureHVGMeanDegree,
 		note: "the formula holds for an exactly periodic series; sin(2πt/T + φ) evaluated in floating point repeats only up to rounding, and the horizontal criterion resolves those ties, which raises ⟨k⟩ towards 4"})
-	lambdaEst := "visibility.Horizontal + visibility.ExponentialTail (geometric MLE, KS-chosen k_min)"
+	lambdaEst := "visibility.Horizontal + networks.ExponentialTail (geometric MLE, KS-chosen k_min)"
 	for _, sys := range []string{"white", "student-t"} {
 		fromRegistry(invariantSpec{id: "hv_tail_exprate/" + sys, system: sys, name: "hv_tail_exprate", estimator: lambdaEst, check: CheckValue,
 			tol: func(_ int, se float64) float64 { return 4 * se }, tolSource: tolHVGLambda, n: nHVG, measure: measureHVGLambda})
 	}
 
-	nvgEst := "visibility.Natural + visibility.PowerLaw (discrete MLE, KS-chosen k_min)"
+	nvgEst := "visibility.Natural + networks.PowerLaw (discrete MLE, KS-chosen k_min)"
 	for _, h := range []float64{0.5, 0.7} {
 		direct(invariantSpec{id: fmt.Sprintf("nv_tail_powexp/fbm@h=%g", h), system: "fbm", params: map[string]float64{"h": h}, name: "nv_tail_powexp",
 			estimator: nvgEst, value: 3 - 2*h, source: "Lacasa et al., EPL 86 (2009) 30001 (memory): γ = 3 − 2H",
@@ -491,7 +492,7 @@ var skipReasons = map[string]string{
 	"sc_fluct_a1":              "checked against the analytic autocovariance (Hosking 1981) in the generators tests; the suite checks DFA on fGn, white noise and Brownian motion",
 	"sc_psd_beta":              "checked against the analytic spectrum in the generators tests; the suite checks the spectral slope on fGn, fBm, white noise and Brownian motion",
 	"sideband_ratio":           "a property of the waveform's construction (AM sidebands m/2), checked in the generators tests",
-	"carrier_line":             "a property of the waveform's construction (FM Bessel sidebands), checked in the generators tests",
+	"carrier_line":             "a property of the waveform's construction (Bessel sidebands of FM and multi-tone PM), checked in the generators tests",
 	"rotation_number":          "a property of the map's orbit, not a feature: checked in the generators tests",
 	"regime1_fraction":         "a property of the generator's hidden regime path, not a feature: checked in the generators tests",
 	"tau_q2":                   "a multifractal scaling exponent of the cascade's construction, checked in the generators tests",
@@ -500,6 +501,7 @@ var skipReasons = map[string]string{
 	"tail_exponent":            "a property of the stable law (tail P(|X| > x) ~ x^−α), checked through the characteristic function and KS tests in the generators tests",
 	"kurtosis":                 "a moment of the generator, not a feature: checked in the generators tests",
 	"peak_frequency":           "the resonance of the oscillator's transfer function, checked against the analytic spectrum in the generators tests",
+	"energy":                   "a conserved quantity of the equations, not a feature: checked along recorded orbits in the generators tests",
 }
 
 // skippedInvariants lists the registry invariants no spec covers.

@@ -8,7 +8,7 @@ import (
 
 	"github.com/tracesift/tracesift/classifier"
 	"github.com/tracesift/tracesift/features"
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 // ThroughputResult is the measured speed of the main operations against

@@ -182,6 +182,11 @@ type Histogram struct {
 	Discrete bool      `json:"discrete"`
 	Upper    []float64 `json:"upper"` // bin b holds (Upper[b−1], Upper[b]]
 	P        []float64 `json:"p"`
+	// X and F are the pooled CDF at every support value of the
+	// comparison (the distinct values of both groups' traces), for
+	// figures finer than the bins.
+	X []float64 `json:"x"`
+	F []float64 `json:"f"`
 }
 
 // Report is the outcome of Analyze. Every slice is in a fixed order, so
@@ -206,6 +211,13 @@ type Report struct {
 	Families      []Family    `json:"families"`
 	Bands         []Band      `json:"bands"`
 	Histograms    []Histogram `json:"histograms"`
+	// Tails are the pooled degree distributions of every group at every
+	// level with their fitted tails (exponential for the HVG, power law
+	// for the NVG).
+	Tails []Tail `json:"tails"`
+	// Verdicts are the classifier's verdicts, one per classified trace in
+	// the canonical trace order (group, device, parameter, file).
+	Verdicts []TraceVerdict `json:"verdicts"`
 	// Warnings are statements a reader must not miss: families in which
 	// nothing can be significant, and what would make them reachable.
 	Warnings []string `json:"warnings"`
@@ -222,6 +234,8 @@ type traceData struct {
 	orig                     map[string]float64
 	surr                     map[string]map[string]Row // method → metric → row
 	dists                    map[[2]string]*Distribution
+	verdict                  *Verdict
+	mixedModels              bool
 }
 
 // Analyze runs every test of the campaign on the per-trace table (rows
@@ -269,6 +283,8 @@ func Analyze(rows []Row, opts AnalyzeOptions) (Report, error) {
 	a.traceTests()
 	a.distributionTests()
 	a.bands()
+	a.tails()
+	a.verdicts()
 	a.adjust()
 	return rep, nil
 }
@@ -283,7 +299,7 @@ func rebuild(rows []Row) ([]*traceData, error) {
 	seen := map[key]bool{}
 	for _, r := range rows {
 		k := key{r.File, r.Kind, r.Condition, r.Name, r.X}
-		if r.Kind == KindMetric {
+		if r.Kind != KindDistribution {
 			k.x = 0
 		}
 		if seen[k] {
@@ -310,6 +326,8 @@ func rebuild(rows []Row) ([]*traceData, error) {
 		switch {
 		case r.Kind == KindMetric && r.Condition == Original:
 			t.orig[r.Name] = r.Value
+		case r.Kind == KindVerdict:
+			t.addVerdict(r)
 		case r.Kind == KindMetric:
 			if t.surr[r.Condition] == nil {
 				t.surr[r.Condition] = map[string]Row{}
@@ -329,16 +347,7 @@ func rebuild(rows []Row) ([]*traceData, error) {
 	out := make([]*traceData, 0, len(byID))
 	for _, t := range byID {
 		for _, d := range t.dists {
-			idx := make([]int, len(d.X))
-			for i := range idx {
-				idx[i] = i
-			}
-			sort.Slice(idx, func(a, b int) bool { return d.X[idx[a]] < d.X[idx[b]] })
-			x, w := make([]float64, len(idx)), make([]float64, len(idx))
-			for i, j := range idx {
-				x[i], w[i] = d.X[j], d.W[j]
-			}
-			d.X, d.W = x, w
+			sortByKey(d.X, d.W)
 		}
 		out = append(out, t)
 	}
@@ -346,6 +355,11 @@ func rebuild(rows []Row) ([]*traceData, error) {
 		return cmp.Or(cmp.Compare(a.group, b.group), cmp.Compare(a.device, b.device),
 			cmpNaN(a.param, b.param), cmp.Compare(a.id, b.id))
 	})
+	for _, t := range out {
+		if err := t.checkVerdict(); err != nil {
+			return nil, err
+		}
+	}
 	return out, nil
 }
 
@@ -880,7 +894,7 @@ func (a *analysis) histogram(s *support, F []float64, name, g string, li, traces
 	}
 	up, p := s.binProbabilities(F)
 	a.rep.Histograms = append(a.rep.Histograms, Histogram{Name: name, Group: g, Level: a.rep.Levels[li].Level,
-		Traces: traces, Discrete: s.discrete, Upper: up, P: p})
+		Traces: traces, Discrete: s.discrete, Upper: up, P: p, X: slices.Clone(s.grid), F: slices.Clone(F)})
 }
 
 // rng returns the generator of one Monte Carlo permutation test: a PCG
@@ -1015,6 +1029,22 @@ func orderNames(m map[string]bool) []string {
 	out := sortedKeys(m)
 	slices.SortStableFunc(out, func(a, b string) int { return cmp.Compare(nameRank(a), nameRank(b)) })
 	return out
+}
+
+// sortByKey sorts keys ascending and moves vals (of the same length)
+// with them; equal keys keep their order.
+func sortByKey[K cmp.Ordered, V any](keys []K, vals []V) {
+	idx := make([]int, len(keys))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return keys[idx[a]] < keys[idx[b]] })
+	k, v := make([]K, len(idx)), make([]V, len(idx))
+	for i, j := range idx {
+		k[i], v[i] = keys[j], vals[j]
+	}
+	copy(keys, k)
+	copy(vals, v)
 }
 
 func sortedCopy(x []float64) []float64 {

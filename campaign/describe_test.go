@@ -139,9 +139,10 @@ func TestFromPattern(t *testing.T) {
 			t.Errorf("%s: group %s device %s", tr.ID, tr.Group, tr.Device)
 		}
 	}
-	// campaign.csv, labels.csv and mkdemo.go are not traces of the pattern.
-	if len(plan.Notes) != 3 {
-		t.Errorf("notes %q, want 3", plan.Notes)
+	// campaign.csv, labels.csv, mkdemo.go and the NumPy and TDMS copies
+	// of two traces (named outside the pattern on purpose) are left out.
+	if len(plan.Notes) != 5 {
+		t.Errorf("notes %q, want 5", plan.Notes)
 	}
 	if _, err := FromPattern([]string{demoDir}, re, Roles{Param: "temperature_K"}); !errors.Is(err, ErrUnknownColumn) {
 		t.Errorf("unknown named group: %v", err)

@@ -12,8 +12,9 @@ import (
 	"github.com/tracesift/tracesift/features"
 	"github.com/tracesift/tracesift/features/increments"
 	"github.com/tracesift/tracesift/features/surrogate"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/groups"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 // Defaults of MeasureOptions.
@@ -71,7 +72,10 @@ func DefaultMetrics() []string {
 
 // ResolveMetrics expands a list of feature names and family names
 // ("graph", "increments", "all", …) into feature names in catalogue
-// order, without duplicates. An empty list gives DefaultMetrics.
+// order, without duplicates. An empty list gives DefaultMetrics. "all" is
+// the schema's features; the extended families (recurrence and ordinal
+// partition networks, rn_* and opn_*: about 0.3 s more per series for
+// the recurrence network) are measured when named, by feature or family.
 func ResolveMetrics(list []string) ([]string, error) {
 	if len(list) == 0 {
 		return DefaultMetrics(), nil
@@ -79,8 +83,8 @@ func ResolveMetrics(list []string) ([]string, error) {
 	want := map[string]bool{}
 	for _, s := range list {
 		matched := false
-		for _, e := range features.Catalogue() {
-			if s == "all" || s == e.Name || s == string(e.Family) {
+		for _, e := range catalogueAll() {
+			if (s == "all" && !features.IsExtended(e.Name)) || s == e.Name || s == string(e.Family) {
 				want[e.Name] = true
 				matched = true
 			}
@@ -90,7 +94,7 @@ func ResolveMetrics(list []string) ([]string, error) {
 		}
 	}
 	var out []string
-	for _, e := range features.Catalogue() {
+	for _, e := range catalogueAll() {
 		if want[e.Name] {
 			out = append(out, e.Name)
 		}
@@ -98,10 +102,15 @@ func ResolveMetrics(list []string) ([]string, error) {
 	return out, nil
 }
 
+// catalogueAll is the schema's catalogue followed by the extended families.
+func catalogueAll() []features.Entry {
+	return append(features.Catalogue(), features.Extended()...)
+}
+
 func familyList() string {
 	seen := map[features.Family]bool{}
 	var out []string
-	for _, e := range features.Catalogue() {
+	for _, e := range catalogueAll() {
 		if !seen[e.Family] {
 			seen[e.Family] = true
 			out = append(out, string(e.Family))
@@ -170,6 +179,19 @@ type Record struct {
 	// Distributions holds the per-trace distributions of the trace and, for
 	// the increments, of its Gaussianised surrogates pooled.
 	Distributions []Distribution
+	// Verdict is the classifier's verdict on the trace, set by the caller
+	// (Measure does not classify); nil for none.
+	Verdict *Verdict
+}
+
+// Verdict is a classifier's verdict on one trace: the class (one of
+// Classes, or Undetermined), the probability of every class, and the
+// model that gave it.
+type Verdict struct {
+	Class         string
+	Classes       []string
+	Probabilities []float64
+	Model         string
 }
 
 // MethodSummary is a metric's distribution over one method's surrogates of
@@ -311,14 +333,14 @@ func traceDistributions(x []float64) ([]Distribution, error) {
 	var out []Distribution
 	for _, kind := range []struct {
 		deg, clu string
-		build    func([]float64, visibility.Options) (*visibility.Graph, error)
+		build    func([]float64, visibility.Options) (*networks.Graph, error)
 	}{
 		{DistNVGDegree, DistNVGClustering, visibility.Natural},
 		{DistHVGDegree, DistHVGClustering, visibility.Horizontal},
 	} {
 		g, err := kind.build(z, visibility.Options{})
 		if err != nil {
-			if errors.Is(err, visibility.ErrTooManyEdges) {
+			if errors.Is(err, networks.ErrTooManyEdges) {
 				continue // the metrics say why; the distribution is left out
 			}
 			return nil, err
@@ -327,7 +349,7 @@ func traceDistributions(x []float64) ([]Distribution, error) {
 		for i := range deg {
 			deg[i] = float64(g.Degree(i))
 		}
-		out = append(out, compact(kind.deg, Original, deg), compact(kind.clu, Original, visibility.LocalClustering(g)))
+		out = append(out, compact(kind.deg, Original, deg), compact(kind.clu, Original, networks.LocalClustering(g)))
 	}
 	inc, err := increments.Normalized(x, increments.Options{})
 	if err != nil {

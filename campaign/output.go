@@ -161,6 +161,32 @@ func WriteSummary(w io.Writer, rep Report, o MarkdownOptions) error {
 	}
 	p.f("\n")
 
+	if len(rep.Verdicts) > 0 {
+		classes := rep.VerdictClasses()
+		p.f("## Verdicts\n\nThe classifier's verdicts (%s) per group and %s; each trace's verdict and class probabilities are in traces.csv (rows of kind verdict) and in report.html.\n\n", strings.Join(rep.VerdictModels(), ", "), label)
+		p.f("| group | %s | %s |\n|---|---|%s\n", cell(label), strings.Join(classes, " | "), strings.Repeat("---|", len(classes)))
+		for _, g := range rep.Groups {
+			for _, lv := range rep.Levels {
+				n := make([]string, len(classes))
+				seen := false
+				for ci, c := range classes {
+					k := 0
+					for _, v := range rep.Verdicts {
+						if v.Group == g && v.Level == lv.Level && v.Class == c {
+							k++
+						}
+					}
+					n[ci] = strconv.Itoa(k)
+					seen = seen || k > 0
+				}
+				if seen {
+					p.f("| %s | %s | %s |\n", cell(g), cell(lv.Level), strings.Join(n, " | "))
+				}
+			}
+		}
+		p.f("\n")
+	}
+
 	if trend := rep.select_(QuestionTrend); len(trend) > 0 {
 		p.f("## Trend with %s\n\n", label)
 		p.f("Spearman's ρ of each metric with %s over a group's traces, and the Theil–Sen slope with its %s interval.\n\n", label, pct(1-rep.Alpha))
@@ -173,22 +199,13 @@ func WriteSummary(w io.Writer, rep Report, o MarkdownOptions) error {
 
 	p.f("## Families\n\nEach family is adjusted on its own. *Reachable* says whether its smallest attainable p-value can pass the adjusted level at all.\n\n")
 	p.f("| family | tests | smallest attainable p | reachable | significant |\n|---|---|---|---|---|\n")
-	traces, traceTests, traceSig, traceReach, traceMin := 0, 0, 0, 0, math.Inf(1)
 	for _, f := range rep.Families {
-		if strings.HasPrefix(f.Name, QuestionTrace+"/") {
-			traces++
-			traceTests += f.Tests
-			traceSig += f.Significant
-			if f.Reachable {
-				traceReach++
-			}
-			traceMin = math.Min(traceMin, f.MinP)
-			continue
+		if !isTraceFamily(f.Name) {
+			p.f("| %s | %d | %s | %s | %d |\n", f.Name, f.Tests, minP(f.MinP), yesNo(f.Reachable), f.Significant)
 		}
-		p.f("| %s | %d | %s | %s | %d |\n", f.Name, f.Tests, minP(f.MinP), yesNo(f.Reachable), f.Significant)
 	}
-	if traces > 0 {
-		p.f("| trace/… (one per trace, %d) | %d | %s | %d of %d | %d |\n", traces, traceTests, minP(traceMin), traceReach, traces, traceSig)
+	if tf := rep.TraceFamilies(); tf.Families > 0 {
+		p.f("| trace/… (one per trace, %d) | %d | %s | %d of %d | %d |\n", tf.Families, tf.Tests, minP(tf.MinP), tf.Reachable, tf.Families, tf.Significant)
 	}
 	p.f("\n")
 	if len(o.Figures) > 0 {
@@ -367,6 +384,35 @@ func writeTail(p *printer, rep Report, o MarkdownOptions) {
 		p.f("> %s\n", o.Caution)
 	}
 }
+
+// TraceFamilySummary sums the per-trace families (one per trace: its
+// rank tests against its own surrogates).
+type TraceFamilySummary struct {
+	Families, Tests, Significant, Reachable int
+	// MinP is the smallest attainable p over them (+Inf without any).
+	MinP float64
+}
+
+// TraceFamilies sums the per-trace families of the report.
+func (r Report) TraceFamilies() TraceFamilySummary {
+	s := TraceFamilySummary{MinP: math.Inf(1)}
+	for _, f := range r.Families {
+		if !isTraceFamily(f.Name) {
+			continue
+		}
+		s.Families++
+		s.Tests += f.Tests
+		s.Significant += f.Significant
+		if f.Reachable {
+			s.Reachable++
+		}
+		s.MinP = math.Min(s.MinP, f.MinP)
+	}
+	return s
+}
+
+// isTraceFamily reports whether a family holds one trace's tests.
+func isTraceFamily(name string) bool { return strings.HasPrefix(name, QuestionTrace+"/") }
 
 // select_ returns the tests of a question.
 func (r Report) select_(question string) []Test {

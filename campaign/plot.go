@@ -6,13 +6,15 @@ import (
 	"image/color"
 	"io"
 	"math"
-	"strconv"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
+
+	"github.com/tracesift/tracesift/report/figure"
 )
 
 // ErrNothingToPlot: the metric has no finite value at a parameter level.
@@ -83,8 +85,10 @@ func PlotMetric(w io.Writer, rep Report, metric, paramLabel string) error {
 		if gi == 0 {
 			p.Y.Label.Text = metric
 		}
-		p.X.Tick.Marker = shortTicks{}
-		p.Y.Tick.Marker = shortTicks{}
+		for _, ax := range []*plot.Axis{&p.X, &p.Y} {
+			ax.Tick.Marker = figure.LinearTicks{}
+			ax.Tick.Label.Handler = figure.Superscript{Fonts: font.DefaultCache}
+		}
 		p.Add(plotter.NewGrid())
 		for mi, method := range rep.Methods {
 			col := methodColours[mi%len(methodColours)]
@@ -116,9 +120,9 @@ func PlotMetric(w io.Writer, rep Report, metric, paramLabel string) error {
 			if err != nil {
 				return fmt.Errorf("plot %s: %w", metric, err)
 			}
-			fill := col
-			fill.A = 0x50
-			pg.Color = fill
+			// A translucent fill: non-premultiplied (color.RGBA with a low
+			// alpha but full RGB is not a valid premultiplied colour).
+			pg.Color = color.NRGBA{R: col.R, G: col.G, B: col.B, A: 0x50}
 			pg.LineStyle.Width = 0
 			line, err := plotter.NewLine(mid)
 			if err != nil {
@@ -178,17 +182,4 @@ func PlotMetric(w io.Writer, rep Report, metric, paramLabel string) error {
 		return fmt.Errorf("plot %s: write: %w", metric, err)
 	}
 	return nil
-}
-
-// shortTicks labels gonum's default ticks in %g form.
-type shortTicks struct{}
-
-func (shortTicks) Ticks(lo, hi float64) []plot.Tick {
-	ts := plot.DefaultTicks{}.Ticks(lo, hi)
-	for i := range ts {
-		if ts[i].Label != "" {
-			ts[i].Label = strconv.FormatFloat(ts[i].Value, 'g', 4, 64)
-		}
-	}
-	return ts
 }

@@ -18,7 +18,20 @@ import (
 const (
 	KindMetric       = "metric"
 	KindDistribution = "distribution"
+	// KindVerdict rows hold the classifier's verdict on the original trace:
+	// one row per class with its probability in Value, N = 1 on the class
+	// of the verdict and 0 on the others; an undetermined verdict adds a
+	// row named Undetermined (Value empty, N = 1). Their Condition names
+	// the model that gave the verdict.
+	KindVerdict = "verdict"
 )
+
+// Undetermined is the class name of a verdict the classifier does not
+// commit to (classifier.UndeterminedLabel).
+const Undetermined = "undetermined"
+
+// UnnamedModel is the condition of verdict rows whose model has no name.
+const UnnamedModel = "unnamed model"
 
 // Row is one line of the tidy per-trace table: a metric of a trace under a
 // condition (the original, or the mean over one method's surrogates), or
@@ -54,7 +67,8 @@ var TableColumns = []string{"kind", "file", "group", "device", "parameter", "lev
 	"condition", "name", "x", "value", "sd", "lo", "hi", "n", "count", "p_rank"}
 
 // Rows turns a Record into table rows: per metric the original, then per
-// method and metric the surrogate summary, then the distributions.
+// method and metric the surrogate summary, then the distributions, then
+// the verdict.
 func Rows(rec Record, parameter string) []Row {
 	nan := math.NaN()
 	base := Row{File: rec.Trace.ID, Group: rec.Trace.Group, Device: rec.Trace.Device, Parameter: parameter,
@@ -81,6 +95,26 @@ func Rows(rec Record, parameter string) []Row {
 		for i := range d.X {
 			r := base
 			r.Kind, r.Condition, r.Name, r.X, r.Value = KindDistribution, d.Condition, d.Name, d.X[i], d.W[i]
+			out = append(out, r)
+		}
+	}
+	if v := rec.Verdict; v != nil {
+		decided := false
+		model := v.Model
+		if model == "" {
+			model = UnnamedModel
+		}
+		for i, c := range v.Classes {
+			r := base
+			r.Kind, r.Condition, r.Name, r.Value = KindVerdict, model, c, v.Probabilities[i]
+			if c == v.Class {
+				r.N, decided = 1, true
+			}
+			out = append(out, r)
+		}
+		if !decided {
+			r := base
+			r.Kind, r.Condition, r.Name, r.Value, r.N = KindVerdict, model, Undetermined, nan, 1
 			out = append(out, r)
 		}
 	}
@@ -119,10 +153,13 @@ func compareRows(a, b Row) int {
 }
 
 func kindRank(k string) int {
-	if k == KindMetric {
+	switch k {
+	case KindMetric:
 		return 0
+	case KindDistribution:
+		return 1
 	}
-	return 1
+	return 2
 }
 
 func conditionRank(c string) int {
@@ -283,8 +320,8 @@ func ReadTableCSV(r io.Reader, name string) ([]Row, error) {
 			Samples: i(rec[6], "samples"), Seed: seed, Condition: rec[8], Name: rec[9],
 			X: f(rec[10], "x"), Value: f(rec[11], "value"), SD: f(rec[12], "sd"), Lo: f(rec[13], "lo"), Hi: f(rec[14], "hi"),
 			N: i(rec[15], "n"), Count: i(rec[16], "count"), PRank: f(rec[17], "p_rank")}
-		if perr == nil && row.Kind != KindMetric && row.Kind != KindDistribution {
-			perr = fmt.Errorf("kind %q (want %s or %s)", row.Kind, KindMetric, KindDistribution)
+		if perr == nil && row.Kind != KindMetric && row.Kind != KindDistribution && row.Kind != KindVerdict {
+			perr = fmt.Errorf("kind %q (want %s, %s or %s)", row.Kind, KindMetric, KindDistribution, KindVerdict)
 		}
 		if perr == nil && (row.File == "" || row.Group == "" || row.Condition == "" || row.Name == "") {
 			perr = errors.New("empty file, group, condition or name")

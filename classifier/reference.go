@@ -357,6 +357,15 @@ var referencePlan = []planEntry{
 		return obs(r, 2, map[string]float64{"a": uni(r, 2.45, 2.77), "b": uni(r, 0.1, 0.25)})
 	}},
 	{"quadratic-map", generators.Chaotic, quadraticMapDraw},
+	{"web-map", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
+		// q = 4 observed through sin u or sin v: the torus dynamics, without
+		// the unbounded random-walk-like drift of u and v along the web,
+		// which would teach the forest that a Brownian envelope is chaos.
+		return map[string]float64{"k": uni(r, 0.5, 3.5), "q": 4, "obs": float64(2 + r.IntN(2))}
+	}},
+	{"froeschle", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
+		return obs(r, 4, map[string]float64{"k1": uni(r, 0.1, 1.5), "k2": uni(r, 0.1, 1.5), "b": logUni(r, 0.01, 0.3)})
+	}},
 	// Chaotic flows.
 	{"lorenz", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
 		return obs(r, 3, map[string]float64{"sigma": uni(r, 8, 16), "rho": uni(r, 25, 120), "dt": logUni(r, 0.003, 0.12)})
@@ -399,6 +408,31 @@ var referencePlan = []planEntry{
 	}},
 	{"lorenz84", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
 		return obs(r, 3, map[string]float64{"a": uni(r, 0.2, 0.3), "b": uni(r, 3, 5), "f": uni(r, 6, 10), "g": uni(r, 0.5, 1.3), "dt": logUni(r, 0.02, 1)})
+	}},
+	{"rossler-ring", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
+		return obs(r, 2, map[string]float64{"n": float64(3 + r.IntN(6)), "eps": uni(r, 0, 0.3), "spread": uni(r, 0, 0.1), "c": uni(r, 3, 8), "dt": logUni(r, 0.05, 1)})
+	}},
+	{"ikeda-delay", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
+		// μ = 2.6 + 4u², denser towards the onset of chaos (μ ≈ 2.8-2.9): a
+		// quarter of the draws are periodic orbits past the Hopf point,
+		// which τ ≥ 3 keeps unstable for every μ ≥ 2.6.
+		u := r.Float64()
+		return map[string]float64{"mu": 2.6 + 4*u*u, "tau": uni(r, 3, 20), "dt": logUni(r, 0.05, 2)}
+	}},
+	{"henon-heiles", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
+		return obs(r, 4, map[string]float64{"e": uni(r, 0.08, 0.166), "dt": logUni(r, 0.05, 1.5)})
+	}},
+	{"jerk-abs", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
+		return obs(r, 3, map[string]float64{"a": uni(r, 0.555, 0.67), "dt": logUni(r, 0.05, 1.5)})
+	}},
+	{"genesio-tesi", generators.Chaotic, func(r *rand.Rand) map[string]float64 {
+		// The chaotic band lies just above the escape edge
+		// C ≈ 0.415 - 0.65 (B - 1.1); C is drawn from 0.015 above it (or
+		// from 0.42, the range's end) through the band into the periodic
+		// orbits above.
+		b := uni(r, 1.08, 1.14)
+		c := max(0.42, 0.43-0.65*(b-1.1)) + uni(r, 0, 0.11)
+		return obs(r, 3, map[string]float64{"b": b, "c": c, "dt": logUni(r, 0.05, 1.5)})
 	}},
 	// Regular motion.
 	{"logistic-periodic", generators.Regular, func(r *rand.Rand) map[string]float64 {
@@ -479,6 +513,7 @@ var referencePlan = []planEntry{
 		return obs(r, 2*m, map[string]float64{"m": float64(m), "mu": uni(r, 0.05, 3), "w2": uni(r, 0.3, 5), "w3": uni(r, 0.3, 5),
 			"kappa": uni(r, 0, 0.5), "dt": logUni(r, 0.03, 0.7)})
 	}},
+	{"pm-multi", generators.Regular, pmMultiDraw},
 	// Noise.
 	{"white", generators.Stochastic, func(*rand.Rand) map[string]float64 { return nil }},
 	{"ar1", generators.Stochastic, func(r *rand.Rand) map[string]float64 { return map[string]float64{"phi": uni(r, -0.9, 0.995)} }},
@@ -564,6 +599,40 @@ var referencePlan = []planEntry{
 	{"poisson-counts", generators.Stochastic, func(r *rand.Rand) map[string]float64 {
 		return map[string]float64{"mean_rate": logUni(r, 0.2, 200), "log_sd": uni(r, 0, 1.5), "tau": logUni(r, 2, 1e4)}
 	}},
+	{"pulse-noise", generators.Stochastic, func(r *rand.Rand) map[string]float64 {
+		// At least about 5 pulses in the shortest record; up to 20
+		// overlapping pulses.
+		rate := logUni(r, 0.01, 2)
+		p := map[string]float64{"rate": rate, "width": logUni(r, 0.5, min(50, 20/rate)), "rise": uni(r, 0.05, 0.6),
+			"amp": float64(r.IntN(2)), "amp_sd": uni(r, 0.2, 1.5)}
+		if r.IntN(2) == 0 {
+			p["background"] = uni(r, 0, 0.3)
+		}
+		return p
+	}},
+	{"renewal-spikes", generators.Stochastic, func(r *rand.Rand) map[string]float64 {
+		return map[string]float64{"rate": 1 / logUni(r, 2, 100), "shape": logUni(r, 0.5, 20), "tau": logUni(r, 0.3, 30)}
+	}},
+}
+
+// pmMultiDraw draws a carrier phase-modulated by 2 or 3 tones whose
+// Carson band 1/period + Σ (index_k+1)/mod_period_k stays below 0.45 cycle
+// per sample (each tone takes an equal share of the room the carrier
+// leaves), with the soft limiter on half the draws.
+func pmMultiDraw(r *rand.Rand) map[string]float64 {
+	m := 2 + r.IntN(2)
+	period := logUni(r, 5, 200)
+	share := (0.45 - 1/period) / float64(m)
+	p := map[string]float64{"period": period, "tones": float64(m)}
+	for k := 1; k <= m; k++ {
+		index := uni(r, 0.2, 3)
+		p[fmt.Sprintf("index%d", k)] = index
+		p[fmt.Sprintf("mod_period%d", k)] = logUni(r, max(10, (index+1)/share), 1000)
+	}
+	if r.IntN(2) == 0 {
+		p["gain"] = uni(r, 0.5, 3)
+	}
+	return p
 }
 
 // obs adds a randomly chosen observed coordinate of a d-dimensional system

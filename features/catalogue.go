@@ -28,6 +28,9 @@ const (
 	FamilyScaling    Family = "scaling"
 	FamilyOrdinal    Family = "ordinal"
 	FamilyIncrements Family = "increments"
+	// Extended families (outside the schema; see IsExtended).
+	FamilyRecurrenceNet Family = "recurrence network"
+	FamilyOrdinalNet    Family = "ordinal network"
 )
 
 // Entry describes one feature of the vector.
@@ -38,7 +41,9 @@ type Entry struct {
 	Reference   string `json:"reference"`
 }
 
-// Catalogue returns the entries of the feature vector in order.
+// Catalogue returns the entries of the feature vector in order: the
+// schema the classifier reads. The extended families (Extended) are not in
+// it.
 func Catalogue() []Entry {
 	var out []Entry
 	for _, f := range families {
@@ -57,9 +62,10 @@ func Names() []string {
 	return names
 }
 
-// Lookup returns the catalogue entry of a feature.
+// Lookup returns the catalogue entry of a feature, of the schema or of an
+// extended family (IsExtended tells which).
 func Lookup(name string) (Entry, bool) {
-	for _, e := range Catalogue() {
+	for _, e := range append(Catalogue(), Extended()...) {
 		if e.Name == name {
 			return e, true
 		}

@@ -8,7 +8,7 @@ import (
 	"slices"
 	"sync"
 
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks"
 )
 
 // MinLength is the shortest series Extract accepts. Shorter series leave
@@ -43,7 +43,7 @@ type Options struct {
 	Only []string
 	// Window is the longest stretch measured at once, in samples. A longer
 	// trace is cut into k = ⌈n/Window⌉ consecutive windows of equal length
-	// (±1 sample; visibility.Windows), each measured as a trace of its own
+	// (±1 sample; networks.Windows), each measured as a trace of its own
 	// (standardised, checked for a grid), one after another, and the
 	// vector holds each feature's median over the windows (see Vector).
 	// This bounds the memory and makes the time linear in the length: the
@@ -56,10 +56,15 @@ type Options struct {
 	// an error (ErrWindow): every window must hold MinLength samples.
 	Window int
 	// MaxEdges is the edge budget of each visibility graph
-	// (visibility.Options.MaxEdges); zero means visibility.DefaultMaxEdges.
+	// (visibility.Options.MaxEdges); zero means networks.DefaultMaxEdges.
 	// A graph past it leaves its features missing, with a
-	// *visibility.EdgeBudgetError in Vector.Causes.
+	// *networks.EdgeBudgetError in Vector.Causes.
 	MaxEdges int64
+	// Extended also computes the extended families (recurrence and ordinal
+	// partition networks; Extended lists them) and appends their features
+	// to the vector after the schema's. They are outside the schema the
+	// classifier reads; naming one of them in Only computes it too.
+	Extended bool
 	// Progress, when not nil, is called as the work advances with the
 	// number of steps done and their total: one step per feature family
 	// per window. Calls are serialised and done increases by one each time.
@@ -108,7 +113,7 @@ type Vector struct {
 	// Causes holds the error behind each missing feature when an estimator
 	// failed (nil otherwise), for errors.Is and errors.As: a caller can
 	// tell, say, a visibility graph past its edge budget
-	// (*visibility.EdgeBudgetError) from a feature undefined for the trace.
+	// (*networks.EdgeBudgetError) from a feature undefined for the trace.
 	Causes []error `json:"-"`
 }
 
@@ -244,7 +249,7 @@ func Extract(x []float64, opts Options) (Vector, error) {
 	if w > 0 && w < 2*MinLength {
 		return Vector{}, fmt.Errorf("%w: %d samples, at least %d", ErrWindow, w, 2*MinLength)
 	}
-	ws := visibility.Windows(len(x), w)
+	ws := networks.Windows(len(x), w)
 	if len(ws) > 1 {
 		return extractWindows(x, ws, opts)
 	}
@@ -256,7 +261,8 @@ func Extract(x []float64, opts Options) (Vector, error) {
 	if err != nil {
 		return Vector{}, err
 	}
-	return measure(z, len(x), opts, only, newStepper(opts.Progress, len(families))), nil
+	fams := activeFamilies(opts, only)
+	return measure(z, len(x), opts, fams, only, newStepper(opts.Progress, len(fams))), nil
 }
 
 // wantedSet checks the names of Options.Only and returns them as a set
@@ -304,42 +310,42 @@ func (p *stepper) step(k int) {
 }
 
 // measure computes the vector of the standardised series z (of n samples
-// as given); see Extract.
-func measure(z []float64, n int, opts Options, only map[string]bool, progress *stepper) Vector {
+// as given) over the families fams; see Extract.
+func measure(z []float64, n int, opts Options, fams []family, only map[string]bool, progress *stepper) Vector {
 	grid := detectGrid(z)
 	if grid.Dithered {
 		z = dither(z, grid, rand.New(rand.NewPCG(opts.Seed, ditherStream)))
 	}
-	sinks := make([]sink, len(families))
+	sinks := make([]sink, len(fams))
 	run := func(i int) {
 		defer progress.step(1)
 		sinks[i] = sink{values: map[string]float64{}, reasons: map[string]string{}, causes: map[string]error{}, only: only}
-		if !sinks[i].wants(familyNames(families[i])...) {
+		if !sinks[i].wants(familyNames(fams[i])...) {
 			return
 		}
 		defer func() {
 			// An estimator panic is a bug, but one bad family must not
 			// take the whole vector down: mark its features missing.
 			if r := recover(); r != nil {
-				sinks[i].miss(fmt.Sprintf("internal error: %v", r), familyNames(families[i])...)
+				sinks[i].miss(fmt.Sprintf("internal error: %v", r), familyNames(fams[i])...)
 			}
 		}()
-		families[i].compute(z, opts, &sinks[i])
+		fams[i].compute(z, opts, &sinks[i])
 	}
 	if opts.Sequential {
-		for i := range families {
+		for i := range fams {
 			run(i)
 		}
 	} else {
 		var wg sync.WaitGroup
-		for i := range families {
+		for i := range fams {
 			wg.Add(1)
 			go func() { defer wg.Done(); run(i) }()
 		}
 		wg.Wait()
 	}
 	v := Vector{N: n, Grid: grid, Windows: 1, WindowLength: n}
-	for i, f := range families {
+	for i, f := range fams {
 		for _, e := range f.entries {
 			val, ok := sinks[i].values[e.Name]
 			reason := sinks[i].reasons[e.Name]
@@ -368,7 +374,7 @@ const windowSeedStream = 0x77696e646f777321 // "windows!"
 // extractWindows measures x window by window (see Options.Window). Window
 // i is measured with the i-th draw of a PCG stream seeded with
 // Options.Seed, so the randomised estimators draw afresh in every window.
-func extractWindows(x []float64, ws []visibility.Window, opts Options) (Vector, error) {
+func extractWindows(x []float64, ws []networks.Window, opts Options) (Vector, error) {
 	if _, _, err := moments(x); err != nil {
 		return Vector{}, err
 	}
@@ -376,7 +382,8 @@ func extractWindows(x []float64, ws []visibility.Window, opts Options) (Vector, 
 	if err != nil {
 		return Vector{}, err
 	}
-	progress := newStepper(opts.Progress, len(ws)*len(families))
+	fams := activeFamilies(opts, only)
+	progress := newStepper(opts.Progress, len(ws)*len(fams))
 	seeds := rand.New(rand.NewPCG(opts.Seed, windowSeedStream))
 	vs := make([]Vector, len(ws))
 	for i, w := range ws {
@@ -387,18 +394,21 @@ func extractWindows(x []float64, ws []visibility.Window, opts Options) (Vector, 
 			// A window that cannot be measured at all (a flat stretch of
 			// a trace that is not flat) leaves every feature missing in
 			// it; the other windows speak for the trace.
-			vs[i] = missingVector(fmt.Errorf("window %d of %d (samples %d–%d): %w", i+1, len(ws), w.Start, w.End-1, err), w.Len())
-			progress.step(len(families))
+			vs[i] = missingVector(fmt.Errorf("window %d of %d (samples %d–%d): %w", i+1, len(ws), w.Start, w.End-1, err), w.Len(), fams)
+			progress.step(len(fams))
 			continue
 		}
-		vs[i] = measure(z, w.Len(), o, only, progress)
+		vs[i] = measure(z, w.Len(), o, fams, only, progress)
 	}
 	return combineWindows(vs, len(x)), nil
 }
 
 // missingVector is a vector with every feature missing because of err.
-func missingVector(err error, n int) Vector {
-	names := Names()
+func missingVector(err error, n int, fams []family) Vector {
+	var names []string
+	for _, f := range fams {
+		names = append(names, familyNames(f)...)
+	}
 	v := Vector{Names: names, Values: make([]float64, len(names)), Reasons: make([]string, len(names)), Causes: make([]error, len(names)), N: n, Windows: 1, WindowLength: n}
 	for i := range names {
 		v.Values[i] = math.NaN()

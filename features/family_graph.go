@@ -4,7 +4,8 @@ import (
 	"fmt"
 	"math"
 
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 var graphFamily = family{
@@ -22,7 +23,7 @@ var graphFamily = family{
 		{"nv_deg_assort", FamilyGraph, "degree assortativity of the NVG", "Newman, Phys. Rev. Lett. 89 (2002) 208701"},
 		{"nv_deg_ent", FamilyGraph, "Shannon entropy of the NVG degree distribution, nats", "Shannon (1948)"},
 		{"nv_path_lnn", FamilyGraph, "average shortest-path length of the NVG divided by ln n (estimated from 32 sampled sources above 2000 nodes)", "Watts & Strogatz (1998); small-world scaling, common practice"},
-		{"nv_ball_dim", FamilyGraph, "local graph dimension of the NVG: growth exponent of the number of nodes within graph distance r", "Shanker, Physica D 227 (2007) 153 (memory); method documented in features/visibility"},
+		{"nv_ball_dim", FamilyGraph, "local graph dimension of the NVG: growth exponent of the number of nodes within graph distance r", "Shanker, Physica D 227 (2007) 153 (memory); method documented in package networks"},
 	},
 	compute: computeGraph,
 }
@@ -38,7 +39,7 @@ func computeGraph(z []float64, o Options, s *sink) {
 		if g, err := visibility.Horizontal(z, visibility.Options{MaxEdges: o.MaxEdges}); err != nil {
 			s.missErr(fmt.Errorf("HVG: %w", err), hvgNames...)
 		} else {
-			m, err := visibility.Measure(g, visibility.MeasureOptions{NoPaths: true, NoCommunities: true, Seed: o.Seed})
+			m, err := networks.Measure(g, networks.MeasureOptions{NoPaths: true, NoCommunities: true, Seed: o.Seed})
 			if err != nil {
 				s.missErr(fmt.Errorf("HVG: %w", err), hvgNames...)
 			} else {
@@ -56,7 +57,7 @@ func computeGraph(z []float64, o Options, s *sink) {
 			s.missErr(fmt.Errorf("NVG: %w", err), nvgNames...)
 			return
 		}
-		m, err := visibility.Measure(g, visibility.MeasureOptions{
+		m, err := networks.Measure(g, networks.MeasureOptions{
 			NoPaths:       !s.wants("nv_path_lnn", "nv_ball_dim"),
 			NoCommunities: !s.wants("nv_comm_q"),
 			Sources:       graphSources,

@@ -22,7 +22,7 @@ var coreNames = []string{
 func TestCatalogue(t *testing.T) {
 	seen := map[string]bool{}
 	name := regexp.MustCompile(`^[a-z][a-z0-9_]*$`)
-	for _, e := range Catalogue() {
+	for _, e := range append(Catalogue(), Extended()...) {
 		if seen[e.Name] {
 			t.Errorf("duplicate feature %s", e.Name)
 		}
@@ -62,6 +62,9 @@ var familyPrefix = map[Family][2]string{
 	FamilyScaling:    {"sc_", ""},
 	FamilyOrdinal:    {"op_", ""},
 	FamilyIncrements: {"dx_", ""},
+	// Extended families (outside the schema).
+	FamilyRecurrenceNet: {"rn_", ""},
+	FamilyOrdinalNet:    {"opn_", ""},
 }
 
 // foreignNames are function names of widely used open-source
@@ -207,5 +210,62 @@ func TestExtractRejectsUnusableSeries(t *testing.T) {
 		if _, err := Extract(c.x, Options{}); !errors.Is(err, c.want) {
 			t.Errorf("err %v, want %v", err, c.want)
 		}
+	}
+}
+
+// TestExtendedOutsideSchema: the extended families (recurrence and ordinal
+// partition networks) stay out of the schema — Names, the default vector
+// and so SchemaHash are those of the schema's families alone — and
+// computing them leaves every schema feature bit-identical. With Extended
+// the vector holds AllNames, the network features measured; Value and
+// Only reach them by name.
+func TestExtendedOutsideSchema(t *testing.T) {
+	for _, n := range Names() {
+		if IsExtended(n) {
+			t.Fatalf("schema name %s is extended", n)
+		}
+	}
+	x := series(t, "lorenz", 3000, 2)
+	a, err := Extract(x, Options{Seed: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := Extract(x, Options{Seed: 3, Extended: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Join(a.Names, ",") != strings.Join(Names(), ",") || strings.Join(b.Names, ",") != strings.Join(AllNames(), ",") {
+		t.Fatalf("names: default %d, extended %d", len(a.Names), len(b.Names))
+	}
+	for i := range a.Names {
+		if math.Float64bits(a.Values[i]) != math.Float64bits(b.Values[i]) || a.Reasons[i] != b.Reasons[i] {
+			t.Errorf("%s changed when the extended families ran: %v → %v", a.Names[i], a.Values[i], b.Values[i])
+		}
+	}
+	for _, e := range Extended() {
+		v, ok := b.Get(e.Name)
+		if !ok {
+			t.Errorf("%s missing for Lorenz: %s", e.Name, b.Missing()[e.Name])
+			continue
+		}
+		w, err := Value(e.Name, x, Options{Seed: 3})
+		if err != nil || math.Float64bits(v) != math.Float64bits(w) {
+			t.Errorf("%s: Extract %v, Value %v (%v)", e.Name, v, w, err)
+		}
+	}
+	// A Lorenz attractor is a thin fractal set, dimension 2.06: its
+	// transitivity dimension at a 5% rate lies far below that of white noise
+	// embedded the same way (Donner et al., Eur. Phys. J. B 84 (2011) 653,
+	// compare chaotic and stochastic systems).
+	noise := series(t, "white", 3000, 2)
+	nv, err := Extract(noise, Options{Seed: 3, Only: []string{"rn_tdim"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	dl, _ := b.Get("rn_tdim")
+	dn, _ := nv.Get("rn_tdim")
+	t.Logf("rn_tdim: Lorenz %.3f, white noise %.3f", dl, dn)
+	if !(dl < dn) {
+		t.Errorf("rn_tdim: Lorenz %.3f not below white noise %.3f", dl, dn)
 	}
 }

@@ -8,14 +8,14 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks"
 )
 
 // A trace longer than Options.Window is measured window by window: each
 // window as a trace of its own with the seed drawn for it, and each feature
 // is the median over the windows that measured it (rule documented on
 // Options.Window and Vector.Spread). Rebuilt here from per-window Extract
-// calls on the stretches visibility.Windows gives.
+// calls on the stretches networks.Windows gives.
 func TestLongTraceIsMeasuredInWindows(t *testing.T) {
 	x := series(t, "henon", 5000, 11)
 	const window = 2048
@@ -23,7 +23,7 @@ func TestLongTraceIsMeasuredInWindows(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	ws := visibility.Windows(len(x), window)
+	ws := networks.Windows(len(x), window)
 	if len(ws) != 3 || got.Windows != 3 || got.WindowLength != 1667 || got.N != 5000 {
 		t.Fatalf("%d windows planned; vector says %d windows of %d, n = %d; want 3 of 1667 (⌈5000/2048⌉ = 3 windows of 1666–1667), n = 5000",
 			len(ws), got.Windows, got.WindowLength, got.N)
@@ -151,8 +151,8 @@ func TestEdgeBudgetIsTheCause(t *testing.T) {
 		t.Error("hv_deg_mean missing under a budget above 2n edges")
 	}
 	i := slices.Index(v.Names, "nv_deg_mean")
-	var eb *visibility.EdgeBudgetError
-	if !math.IsNaN(v.Values[i]) || !errors.As(v.Causes[i], &eb) || eb.Budget != 5000 || eb.Nodes != 2000 || !errors.Is(v.Causes[i], visibility.ErrTooManyEdges) {
+	var eb *networks.EdgeBudgetError
+	if !math.IsNaN(v.Values[i]) || !errors.As(v.Causes[i], &eb) || eb.Budget != 5000 || eb.Nodes != 2000 || !errors.Is(v.Causes[i], networks.ErrTooManyEdges) {
 		t.Fatalf("nv_deg_mean %v, cause %v; want missing because of the 5000-edge budget on 2000 nodes", v.Values[i], v.Causes[i])
 	}
 	if j := slices.Index(v.Names, "sc_fluct_a1"); v.Causes[j] != nil || v.Reasons[j] != "" {

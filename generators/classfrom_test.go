@@ -9,7 +9,7 @@ import (
 // mixedAtDefaults lists the systems whose defaults lie in a mixed phase
 // space: the label of a series depends on its drawn start, so ClassFrom
 // gives both labels there (checked in their own tests).
-var mixedAtDefaults = map[string]bool{"standard-map": true, "nose-hoover": true}
+var mixedAtDefaults = map[string]bool{"standard-map": true, "nose-hoover": true, "henon-heiles": true}
 
 // TestClassFromDrawsLikeGenerate: ClassFrom consumes exactly the draws
 // Generate makes for its start (the same rng state afterwards), so the

@@ -334,6 +334,8 @@ func TestJacobians(t *testing.T) {
 		"standard-map":     StandardMap{K: 1.5},
 		"holmes":           Holmes{A: 2.75, B: 0.2},
 		"quadratic-map":    QuadraticMap{A: [12]float64{0.3, -0.7, 1.1, -0.2, 0.9, 0.4, -1.2, 0.5, 0.8, -0.6, 0.1, 1.0}},
+		"web-map":          newWebMap(2.5, 6, 0),
+		"froeschle":        Froeschle{K1: 1.2, K2: 0.8, B: 0.3},
 	}
 	fields := map[string]field{
 		"lorenz":         Lorenz{Sigma: 10, Rho: 28, Beta: 8.0 / 3},
@@ -350,6 +352,10 @@ func TestJacobians(t *testing.T) {
 		"hindmarsh-rose": HindmarshRose{I: 3.25, R: 0.006},
 		"rucklidge":      Rucklidge{Kappa: 2, Lambda: 6.7},
 		"lorenz84":       Lorenz84{A: 0.25, B: 4, F: 8, G: 1},
+		"rossler-ring":   RosslerRing{N: 4, Eps: 0.1, Spread: 0.05, C: 5.7},
+		"henon-heiles":   HenonHeiles{E: 0.125},
+		"jerk-abs":       JerkAbs{A: 0.6},
+		"genesio-tesi":   GenesioTesi{A: 1, B: 1.1, C: 0.44},
 	}
 	// tangent, where implemented, must equal J·w.
 	checkTangent := func(name string, d int, m any, jac func(dst, v []float64)) {

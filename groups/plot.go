@@ -5,11 +5,13 @@ import (
 	"image/color"
 	"io"
 	"math"
-	"strconv"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
+
+	"github.com/tracesift/tracesift/report/figure"
 )
 
 // DistKind selects how PlotDistribution and PlotFeatureDistribution draw
@@ -90,19 +92,14 @@ func writePNG(w io.Writer, p *plot.Plot, width, height vg.Length, what string) e
 	return nil
 }
 
-// plainTicks labels an axis with gonum's default ticks written in %g form
-// (gonum's own labels can show long decimal expansions).
-type plainTicks struct{}
-
-// Ticks returns the default ticks between lo and hi with short labels.
-func (plainTicks) Ticks(lo, hi float64) []plot.Tick {
-	ts := plot.DefaultTicks{}.Ticks(lo, hi)
-	for i := range ts {
-		if ts[i].Label != "" {
-			ts[i].Label = strconv.FormatFloat(ts[i].Value, 'g', 4, 64)
-		}
+// oneNotation sets both axes of p to ticks whose labels share one
+// notation, fixed or scientific with raised exponents (report/figure),
+// never "1e-05" beside "0.0001".
+func oneNotation(p *plot.Plot) {
+	for _, ax := range []*plot.Axis{&p.X, &p.Y} {
+		ax.Tick.Marker = figure.LinearTicks{}
+		ax.Tick.Label.Handler = figure.Superscript{Fonts: font.DefaultCache}
 	}
-	return ts
 }
 
 // padRange returns lo, hi widened by frac of the span on both sides (and

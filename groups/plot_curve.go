@@ -116,8 +116,7 @@ func curvePlot(r Result, feature string, opts PlotOptions, legend bool) (*plot.P
 	}
 	p.X.Label.Text = xlabel
 	p.Y.Label.Text = feature
-	p.X.Tick.Marker = plainTicks{}
-	p.Y.Tick.Marker = plainTicks{}
+	oneNotation(p)
 	p.Add(plotter.NewGrid())
 	ylo, yhi := math.Inf(1), math.Inf(-1)
 	drawn := 0

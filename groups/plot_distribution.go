@@ -5,11 +5,12 @@ import (
 	"io"
 	"math"
 	"sort"
-	"strconv"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
+
+	"github.com/tracesift/tracesift/report/figure"
 )
 
 // weightedECDF is a step CDF: F(X[i]) = F[i], X ascending, F ending at 1.
@@ -114,8 +115,7 @@ func plotDists(w io.Writer, ecdfs []*weightedECDF, labels []string, xlabel, titl
 	p := plot.New()
 	p.Title.Text = title
 	p.X.Label.Text = xlabel
-	p.X.Tick.Marker = plainTicks{}
-	p.Y.Tick.Marker = plainTicks{}
+	oneNotation(p)
 	p.Add(plotter.NewGrid())
 	xlo, xhi := padRange(lo, hi, 0.03)
 	var edges []float64
@@ -259,16 +259,21 @@ func binEdges(ecdfs []*weightedECDF, lo, hi float64, bins int) []float64 {
 }
 
 // decadeTicks labels an axis holding log10 values with the powers of ten
-// they stand for (1, 0.1, 0.01, 0.001, 1e-04, …) and puts unlabelled minor
-// ticks at 2…9 times each power.
+// they stand for, all in one notation (figure.FormatEach: "0.01", "0.1",
+// "1", or 10⁻⁵ … 10⁰ as powers), and puts unlabelled minor ticks at 2…9
+// times each power.
 type decadeTicks struct{}
 
 // Ticks returns the decade ticks between lo and hi (log10 units).
 func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 	var ts []plot.Tick
+	var decades []float64
+	var at []int
 	for k := math.Floor(lo); k <= math.Ceil(hi); k++ {
 		if k >= lo && k <= hi {
-			ts = append(ts, plot.Tick{Value: k, Label: strconv.FormatFloat(math.Pow(10, k), 'g', -1, 64)})
+			at = append(at, len(ts))
+			decades = append(decades, math.Pow(10, k))
+			ts = append(ts, plot.Tick{Value: k})
 		}
 		for m := 2.0; m <= 9; m++ {
 			v := k + math.Log10(m)
@@ -276,6 +281,9 @@ func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 				ts = append(ts, plot.Tick{Value: v})
 			}
 		}
+	}
+	for i, l := range figure.FormatEach(decades) {
+		ts[at[i]].Label = l.String()
 	}
 	return ts
 }

@@ -7,8 +7,9 @@ import (
 
 	"github.com/tracesift/tracesift/classifier"
 	"github.com/tracesift/tracesift/features"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/models"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 	"github.com/tracesift/tracesift/trace"
 )
 
@@ -39,7 +40,7 @@ func Example() {
 		fmt.Println(err)
 		return
 	}
-	tail, err := visibility.ExponentialTail(g, visibility.TailOptions{})
+	tail, err := networks.ExponentialTail(g, networks.TailOptions{})
 	if err != nil {
 		fmt.Println(err)
 		return

@@ -1,6 +1,13 @@
-// Package report writes the single-trace HTML report of tracesift: one
-// self-contained file (inline CSS and SVG, no scripts, nothing fetched from
-// the network) that a device engineer can read on screen or print.
+// Package report writes the HTML reports of tracesift: the single-trace
+// report (below) and the campaign report (WriteCampaign, from a
+// campaign.Report: the verdict grid per group, metrics against the
+// control parameter with surrogate bands and adjusted rejections, pooled
+// distributions with fitted tails, tables of tests, methods). Each is one
+// self-contained file (inline CSS and SVG, nothing fetched from the
+// network; the campaign page has a few lines of inline script for its
+// grid) that a device engineer can read on screen or print. Both pages
+// share their head, style sheet and figure parts (page.go) and the SVG
+// writer (svg.go).
 //
 // Build analyses a trace with a classifier model and gathers everything the
 // report shows; (*Report).WriteHTML renders it. The sections, by HTML id

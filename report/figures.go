@@ -193,13 +193,7 @@ func hvgDegreeFigure(g *GraphPanel) string {
 	c.legend = []legendEntry{{label: "HVG of the trace", marker: "circle", fill: inkHVG, stroke: inkHVG},
 		{label: "i.i.d.: (1/3)(2/3)^(k−2)", stroke: inkRef, dash: "5 3"}}
 	if t := g.Tail; t != nil {
-		var fx, fy []float64
-		share := float64(t.NTail) / float64(g.Nodes)
-		q := math.Exp(-t.Lambda)
-		for k := t.KMin; k <= kmax+1; k++ {
-			fx = append(fx, float64(k))
-			fy = append(fy, share*(1-q)*math.Pow(q, float64(k-t.KMin)))
-		}
+		fx, fy := exponentialTail(t.KMin, kmax+1, float64(t.NTail)/float64(g.Nodes), t.Lambda)
 		c.polyline(fx, fy, inkFit, 1.6, "")
 		c.legend = append(c.legend, legendEntry{label: fmt.Sprintf("fitted tail, λ = %.3f", t.Lambda), stroke: inkFit})
 	}
@@ -229,14 +223,7 @@ func nvgDegreeFigure(g *GraphPanel) string {
 	c.xlabel, c.ylabel = "degree k", "P(k)"
 	c.legend = []legendEntry{{label: "NVG of the trace", marker: "circle", fill: inkNVG, stroke: inkNVG}}
 	if f := g.PowerLaw; f != nil {
-		share := float64(f.NTail) / float64(g.Nodes)
-		z := hurwitzZeta(f.Gamma, float64(f.KMin))
-		var fx, fy []float64
-		for i := 0; i <= 60; i++ {
-			k := float64(f.KMin) * math.Pow(float64(kmax)/float64(f.KMin), float64(i)/60)
-			fx = append(fx, k)
-			fy = append(fy, share*math.Pow(k, -f.Gamma)/z)
-		}
+		fx, fy := powerLawTail(f.KMin, kmax, float64(f.NTail)/float64(g.Nodes), f.Gamma)
 		c.polyline(fx, fy, inkFit, 1.6, "")
 		c.legend = append(c.legend, legendEntry{label: fmt.Sprintf("power law, γ = %.2f (k ≥ %d)", f.Gamma, f.KMin), stroke: inkFit})
 	}

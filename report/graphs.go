@@ -4,7 +4,8 @@ import (
 	"fmt"
 	"math"
 
-	"github.com/tracesift/tracesift/features/visibility"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 // GraphPanel holds what the report draws of one visibility graph: the
@@ -16,12 +17,12 @@ type GraphPanel struct {
 	// on (the middle GraphLength samples of a longer trace).
 	Offset, Nodes int
 	Edges         int64
-	Degrees       visibility.DegreeStats
-	Clustering    visibility.ClusteringStats
+	Degrees       networks.DegreeStats
+	Clustering    networks.ClusteringStats
 	// Tail is the exponential-tail fit (HVG) and PowerLaw the power-law fit
 	// (NVG); nil when the fit failed (FitError says why) or does not apply.
-	Tail     *visibility.TailFit
-	PowerLaw *visibility.PowerLawFit
+	Tail     *networks.TailFit
+	PowerLaw *networks.PowerLawFit
 	FitError string
 }
 
@@ -29,7 +30,7 @@ type GraphPanel struct {
 // samples of x and measures them. Failures come back as messages.
 func buildGraphs(x []float64, n int) (hvg, nvg *GraphPanel, errs []string) {
 	seg, off := middle(x, n)
-	kinds := []visibility.Kind{visibility.KindHVG, visibility.KindNVG}
+	kinds := []networks.Kind{networks.KindHVG, networks.KindNVG}
 	out := make([]*GraphPanel, len(kinds))
 	msgs := make([]string, len(kinds))
 	done := make(chan struct{}, len(kinds))
@@ -55,23 +56,23 @@ func buildGraphs(x []float64, n int) (hvg, nvg *GraphPanel, errs []string) {
 	return out[0], out[1], errs
 }
 
-func measureGraph(seg []float64, off int, k visibility.Kind) (*GraphPanel, error) {
+func measureGraph(seg []float64, off int, k networks.Kind) (*GraphPanel, error) {
 	g, err := visibility.Build(seg, k, visibility.Options{})
 	if err != nil {
 		return nil, err
 	}
-	p := &GraphPanel{Kind: k.String(), Offset: off, Nodes: g.Len(), Edges: g.Edges(), Degrees: visibility.Degrees(g)}
-	_, p.Clustering = visibility.Clustering(g)
+	p := &GraphPanel{Kind: k.String(), Offset: off, Nodes: g.Len(), Edges: g.Edges(), Degrees: networks.Degrees(g)}
+	_, p.Clustering = networks.Clustering(g)
 	switch k {
-	case visibility.KindHVG:
-		t, err := visibility.ExponentialTail(g, visibility.TailOptions{})
+	case networks.KindHVG:
+		t, err := networks.ExponentialTail(g, networks.TailOptions{})
 		if err != nil {
 			p.FitError = err.Error()
 		} else {
 			p.Tail = &t
 		}
-	case visibility.KindNVG:
-		f, err := visibility.PowerLaw(g, visibility.PowerLawOptions{})
+	case networks.KindNVG:
+		f, err := networks.PowerLaw(g, networks.PowerLawOptions{})
 		if err != nil {
 			p.FitError = err.Error()
 		} else {
@@ -89,6 +90,33 @@ func iidHVG(k int) float64 {
 		return 0
 	}
 	return math.Pow(2.0/3.0, float64(k-2)) / 3
+}
+
+// exponentialTail returns the fitted exponential tail of a degree
+// distribution at k = kmin…kmax: P(k) = share·(1 − q)·q^{k−kmin}, q = e^{−λ},
+// the geometric law of the tail (visibility.TailFit) scaled to the share of
+// the nodes it holds.
+func exponentialTail(kmin, kmax int, share, lambda float64) (ks, ps []float64) {
+	q := math.Exp(-lambda)
+	for k := kmin; k <= kmax; k++ {
+		ks = append(ks, float64(k))
+		ps = append(ps, share*(1-q)*math.Pow(q, float64(k-kmin)))
+	}
+	return ks, ps
+}
+
+// powerLawTail returns the fitted discrete power law of a degree
+// distribution at 61 points spaced evenly in log k over [kmin, kmax]:
+// P(k) = share·k^{−γ}/ζ(γ, kmin) (visibility.PowerLawFit) scaled to the
+// share of the nodes its tail holds.
+func powerLawTail(kmin, kmax int, share, gamma float64) (ks, ps []float64) {
+	z := hurwitzZeta(gamma, float64(kmin))
+	for i := 0; i <= 60; i++ {
+		k := float64(kmin) * math.Pow(float64(kmax)/float64(kmin), float64(i)/60)
+		ks = append(ks, k)
+		ps = append(ps, share*math.Pow(k, -gamma)/z)
+	}
+	return ks, ps
 }
 
 // hurwitzZeta returns ζ(s, q) = Σ_{k≥0} (k + q)^{−s} for s > 1, q > 0:

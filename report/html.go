@@ -78,6 +78,7 @@ type figure struct {
 
 type view struct {
 	Title, Source, Kicker string
+	ExtraCSS              template.CSS // none: the shared style sheet serves
 	Facts                 []fact
 	TraceWarnings         []string
 	Nav                   []fact // id, title
@@ -98,6 +99,7 @@ type view struct {
 	DegreesFailures   []string
 	ClustFig, CkFig   *figure
 	ClusteringNote    string
+	NetworkTable      *networkTable
 	PlaneFig          *figure
 	PlaneNote         string
 	RefRows           []refRow
@@ -309,6 +311,9 @@ func (r *Report) viewGraphs(v *view) {
 			parts = append(parts, fmt.Sprintf("NVG mean clustering %s, transitivity %s", h4(n.Clustering.Mean), h4(n.Clustering.Transitivity)))
 		}
 		v.ClusteringNote = strings.Join(parts, "; ") + "."
+	}
+	if r.Networks != nil {
+		v.NetworkTable = r.Networks.table()
 	}
 }
 
@@ -548,14 +553,17 @@ func quantity(x, scale float64, unit string) string {
 }
 
 // signed prints a contribution with an explicit sign.
-func signed(x float64) string {
+func signed(x float64) string { return signedDigits(x, 3) }
+
+// signedDigits prints x with d decimals and an explicit sign, "—" for NaN.
+func signedDigits(x float64, d int) string {
 	if math.IsNaN(x) {
 		return "—"
 	}
 	if x >= 0 {
-		return "+" + strconv.FormatFloat(x, 'f', 3, 64)
+		return "+" + strconv.FormatFloat(x, 'f', d, 64)
 	}
-	return minus(strconv.FormatFloat(x, 'f', 3, 64))
+	return minus(strconv.FormatFloat(x, 'f', d, 64))
 }
 
 func fixedOrDash(x float64, d int) string {
@@ -583,7 +591,5 @@ func capitalise(s string) string {
 	return strings.ToUpper(s[:1]) + s[1:]
 }
 
-// page is the report template. It is written in XHTML syntax (every element
-// closed, no named entities besides the XML ones) so that the output parses
-// as XML as well as HTML.
-var page = template.Must(template.New("report").Parse(pageTemplate))
+// page is the single-trace report template with the shared parts.
+var page = parsePage("report", pageTemplate)

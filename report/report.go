@@ -159,7 +159,9 @@ type Report struct {
 	Trace      *TracePanel
 	Increments *IncrementsPanel
 	HVG, NVG   *GraphPanel
-	Plane      *PlanePanel
+	// Networks compares the four network constructions on one stretch.
+	Networks *NetworksPanel
+	Plane    *PlanePanel
 	// Determinism is the surrogate test of determinism (nil when skipped
 	// or failed); Surrogates the tests of Options.Stats (nil without).
 	Determinism *surrogate.DeterminismResult
@@ -266,6 +268,9 @@ func Build(tr trace.Trace, m *classifier.Model, opts Options) (*Report, error) {
 		for _, e := range errs {
 			fail(sectionDegrees, "%s", e)
 		}
+	})
+	run(func() {
+		r.Networks = buildNetworks(x, o.Seed)
 	})
 	run(func() {
 		p, err := buildPlane(x, o.Order, o.References)

@@ -10,6 +10,7 @@ import (
 	"os"
 	"path/filepath"
 	"runtime"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -95,16 +96,27 @@ func henonHTML(t *testing.T) ([]byte, *Report) {
 	return henonReport.html, henonReport.rep
 }
 
-func TestReportIsWellFormedAndComplete(t *testing.T) {
-	html, rep := henonHTML(t)
+// figInfo is one figure of a page: its id, its nested panels, and the
+// elements drawn inside the clipped plot areas.
+type figInfo struct {
+	id            string
+	panels, drawn int
+}
+
+// scanPage reads a page as strict XML (no auto-closing, no HTML entities:
+// XHTML syntax only) and checks what every page must hold to: unique
+// ids, nothing that would load from outside the file (inline scripts
+// allowed only when inlineScript), no external CSS. It returns the ids
+// and the figures (top-level <svg class="fig">), and calls start for
+// every element with the names of the elements it is in.
+func scanPage(t *testing.T, html []byte, inlineScript bool, start func(e xml.StartElement, in []string)) (map[string]bool, []figInfo) {
+	t.Helper()
 	ids := map[string]bool{}
-	svgs := 0
-	// Every figure draws its data inside the group clipped to the plot
-	// area; count what is drawn there.
-	var svgDepth, clipDepth int
-	drawn := -1
+	var figs []figInfo
+	var stack []string
+	clipDepth := 0
 	d := xml.NewDecoder(bytes.NewReader(html))
-	d.Strict = true // no auto-closing, no HTML entities: XHTML syntax only
+	d.Strict = true
 	for {
 		tok, err := d.Token()
 		if err == io.EOF {
@@ -123,33 +135,30 @@ func TestReportIsWellFormedAndComplete(t *testing.T) {
 					ids[a.Value] = true
 				}
 			}
-			checkNoExternal(t, e)
+			checkNoExternal(t, e, inlineScript)
+			if start != nil {
+				start(e, stack)
+			}
+			inSVG := slices.Contains(stack, "svg")
 			switch {
-			case e.Name.Local == "svg":
-				if svgDepth == 0 && hasClass(e, "fig") {
-					svgs++
-					drawn = 0
-				}
-				svgDepth++
+			case e.Name.Local == "svg" && !inSVG && hasClass(e, "fig"):
+				figs = append(figs, figInfo{id: strings.TrimSuffix(attr(e, "aria-labelledby"), "-t")})
+			case e.Name.Local == "svg" && inSVG && len(figs) > 0:
+				figs[len(figs)-1].panels++
 			case clipDepth > 0:
 				clipDepth++
 				switch e.Name.Local {
 				case "path", "rect", "circle":
-					drawn++
+					figs[len(figs)-1].drawn++
 				}
-			case e.Name.Local == "g" && hasAttr(e, "clip-path"):
+			case e.Name.Local == "g" && hasAttr(e, "clip-path") && len(figs) > 0:
 				clipDepth = 1
 			}
+			stack = append(stack, e.Name.Local)
 		case xml.EndElement:
-			switch {
-			case clipDepth > 0:
+			stack = stack[:len(stack)-1]
+			if clipDepth > 0 {
 				clipDepth--
-			case e.Name.Local == "svg":
-				svgDepth--
-				if svgDepth == 0 && drawn == 0 {
-					t.Errorf("figure %d draws nothing in its plot area", svgs)
-				}
-				drawn = -1 // contribution bars have no plot area
 			}
 		case xml.CharData:
 			if bytes.Contains(e, []byte("@import")) {
@@ -160,6 +169,30 @@ func TestReportIsWellFormedAndComplete(t *testing.T) {
 			}
 		}
 	}
+	for _, f := range figs {
+		if f.drawn == 0 {
+			t.Errorf("figure %q draws nothing in its plot area", f.id)
+		}
+	}
+	return ids, figs
+}
+
+// attr returns the value of the attribute name ("" when absent).
+func attr(e xml.StartElement, name string) string {
+	for _, a := range e.Attr {
+		if a.Name.Local == name {
+			return a.Value
+		}
+	}
+	return ""
+}
+
+func TestReportIsWellFormedAndComplete(t *testing.T) {
+	html, rep := henonHTML(t)
+	// Every figure draws its data inside the group clipped to the plot
+	// area (scanPage counts what is drawn there).
+	ids, figs := scanPage(t, html, false, nil)
+	svgs := len(figs)
 	for _, id := range Sections() {
 		if !ids[id] {
 			t.Errorf("section %q missing", id)
@@ -218,13 +251,18 @@ func hasClass(e xml.StartElement, c string) bool {
 }
 
 // checkNoExternal fails on any attribute that would make a browser fetch
-// something: link elements, scripts, and src/href-like attributes that are
-// not in-document fragments.
-func checkNoExternal(t *testing.T, e xml.StartElement) {
+// something: link elements, scripts (inline ones allowed when
+// inlineScript), and src/href-like attributes that are not in-document
+// fragments.
+func checkNoExternal(t *testing.T, e xml.StartElement, inlineScript bool) {
 	t.Helper()
 	switch e.Name.Local {
-	case "link", "script", "iframe", "object", "embed", "img", "image", "use":
+	case "link", "iframe", "object", "embed", "img", "image", "use":
 		t.Errorf("element <%s> in a self-contained report", e.Name.Local)
+	case "script":
+		if !inlineScript {
+			t.Errorf("element <%s> in a self-contained report", e.Name.Local)
+		}
 	}
 	for _, a := range e.Attr {
 		switch a.Name.Local {

@@ -50,6 +50,10 @@ type chart struct {
 	legend         []legendEntry
 	legendLeft     bool // place the legend at the top left instead of top right
 	legendBottom   bool // place the legend at the bottom (right unless legendLeft)
+	// nested charts are panels of a figure (panelRow): drawn as an inner
+	// <svg> at (ox, 0) of the figure, without their own title.
+	nested bool
+	ox     float64
 	// avoid records what the content draws (lines, markers, bars) in user
 	// units, so the legend can be moved off data it would cover.
 	avoid fig.Obstacles
@@ -122,6 +126,12 @@ func (c *chart) clampY(v float64) float64 { return math.Max(-c.h, math.Min(2*c.h
 
 // area fills the band between lower and upper over xs (min/max envelopes).
 func (c *chart) area(xs, lower, upper []float64, fill, stroke string) {
+	c.band(xs, lower, upper, fill, stroke, 1)
+}
+
+// band is area with a fill opacity below 1 (bands of several groups seen
+// through each other); the stroke is left out when it is "".
+func (c *chart) band(xs, lower, upper []float64, fill, stroke string, opacity float64) {
 	var b strings.Builder
 	var outline []fig.Point
 	defer func() { c.avoid.Lines = append(c.avoid.Lines, outline) }()
@@ -147,6 +157,10 @@ func (c *chart) area(xs, lower, upper []float64, fill, stroke string) {
 		b.WriteString("L" + num(c.clampX(X)) + " " + num(c.clampY(Y)))
 	}
 	if b.Len() == 0 {
+		return
+	}
+	if opacity < 1 {
+		fmt.Fprintf(&c.body, `<path d="%sZ" fill="%s" fill-opacity="%s" stroke="none"/>`+"\n", b.String(), fill, num(opacity))
 		return
 	}
 	fmt.Fprintf(&c.body, `<path d="%sZ" fill="%s" stroke="%s" stroke-width="0.6" stroke-linejoin="round"/>`+"\n", b.String(), fill, stroke)
@@ -268,9 +282,12 @@ func (c *chart) labelAt(X, Y float64, anchor, text, fill string, size float64) {
 // svg renders the chart.
 func (c *chart) svg() string {
 	var b strings.Builder
-	fmt.Fprintf(&b, `<svg class="fig" viewBox="0 0 %s %s" width="%s" height="%s" role="img" aria-labelledby="%s-t" font-family="DejaVu Sans, Helvetica, Arial, sans-serif" font-size="11">`+"\n",
-		num(c.w), num(c.h), num(c.w), num(c.h), c.id)
-	fmt.Fprintf(&b, `<title id="%s-t">%s</title>`+"\n", c.id, esc(c.title))
+	if c.nested {
+		fmt.Fprintf(&b, `<svg x="%s" y="0" viewBox="0 0 %s %s" width="%s" height="%s">`+"\n",
+			num(c.ox), num(c.w), num(c.h), num(c.w), num(c.h))
+	} else {
+		openFigure(&b, c.w, c.h, c.id, c.title)
+	}
 	fmt.Fprintf(&b, `<defs><clipPath id="%s-clip"><rect x="%s" y="%s" width="%s" height="%s"/></clipPath></defs>`+"\n",
 		c.id, num(c.left), num(c.top), num(c.plotW()), num(c.plotH()))
 	fmt.Fprintf(&b, `<rect x="%s" y="%s" width="%s" height="%s" fill="#ffffff" stroke="none"/>`+"\n",
@@ -348,6 +365,35 @@ func (c *chart) svg() string {
 	b.WriteString("</g>\n")
 	b.WriteString(c.over.String())
 	b.WriteString(c.legendSVG())
+	b.WriteString("</svg>")
+	return b.String()
+}
+
+// openFigure writes the opening tag of a figure's <svg> (w × h user units)
+// and its accessible title.
+func openFigure(b *strings.Builder, w, h float64, id, title string) {
+	fmt.Fprintf(b, `<svg class="fig" viewBox="0 0 %s %s" width="%s" height="%s" role="img" aria-labelledby="%s-t" font-family="DejaVu Sans, Helvetica, Arial, sans-serif" font-size="11">`+"\n",
+		num(w), num(h), num(w), num(h), id)
+	fmt.Fprintf(b, `<title id="%s-t">%s</title>`+"\n", id, esc(title))
+}
+
+// panelRow draws charts side by side as one figure (an outer <svg> of
+// class fig holding each chart as a nested <svg>), titled title.
+func panelRow(id, title string, panels []*chart) string {
+	var b strings.Builder
+	w, h := 0.0, 0.0
+	for _, p := range panels {
+		w += p.w
+		h = math.Max(h, p.h)
+	}
+	openFigure(&b, w, h, id, title)
+	x := 0.0
+	for _, p := range panels {
+		p.nested, p.ox = true, x
+		b.WriteString(p.svg())
+		b.WriteString("\n")
+		x += p.w
+	}
 	b.WriteString("</svg>")
 	return b.String()
 }

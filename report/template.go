@@ -1,109 +1,15 @@
 package report
 
-// pageTemplate is the HTML of the report. Styling goals: plain and
-// readable on screen and on paper — dark text on white, thin rules, one
-// accent colour, figures at most one text width wide; in print every
-// section starts a new page and no figure or table row is split.
-const pageTemplate = `<!DOCTYPE html>
-<html lang="en">
-<head>
-<meta charset="utf-8"/>
-<meta name="viewport" content="width=device-width, initial-scale=1"/>
-<meta name="generator" content="tracesift"/>
-<title>{{.Title}}</title>
-<style>
-:root { --ink: #1c232b; --muted: #56606b; --rule: #d3d8de; --accent: #24486b; }
-* { box-sizing: border-box; }
-html { background: #ffffff; }
-body { margin: 0 auto; max-width: 60rem; padding: 1.5rem 1.5rem 3rem; color: var(--ink); background: #ffffff;
-  font: 15px/1.55 "DejaVu Serif", Georgia, "Times New Roman", serif; }
-h1, h2, h3, nav, table, figcaption, dl, .kicker, .verdict, footer { font-family: "DejaVu Sans", Helvetica, Arial, sans-serif; }
-h1 { font-size: 1.45rem; line-height: 1.25; margin: .25rem 0 1rem; overflow-wrap: anywhere; }
-h2 { font-size: 1.2rem; margin: 2.4rem 0 .8rem; padding-bottom: .25rem; border-bottom: 2px solid var(--accent); }
-h2 .no { color: var(--accent); margin-right: .5rem; }
-h3 { font-size: 1rem; margin: 1.4rem 0 .4rem; }
-p { margin: .5rem 0; }
-.kicker { margin: 0; font-size: .75rem; letter-spacing: .09em; text-transform: uppercase; color: var(--muted); }
-dl.facts { display: grid; grid-template-columns: max-content 1fr max-content 1fr; gap: .2rem 1.2rem; margin: .5rem 0 1rem; font-size: .88rem; }
-dl.facts dt { color: var(--muted); }
-dl.facts dd { margin: 0; overflow-wrap: anywhere; }
-dl.two { grid-template-columns: max-content 1fr; }
-nav { font-size: .85rem; border-top: 1px solid var(--rule); border-bottom: 1px solid var(--rule); padding: .4rem 0; }
-nav a { color: var(--accent); text-decoration: none; margin-right: 1rem; white-space: nowrap; }
-figure { margin: 1rem 0 1.2rem; break-inside: avoid; page-break-inside: avoid; }
-svg.fig { display: block; max-width: 100%; height: auto; }
-svg.bar { display: block; }
-figcaption { margin-top: .35rem; font-size: .82rem; line-height: 1.45; color: var(--muted); }
-.pair { display: grid; grid-template-columns: repeat(auto-fit, minmax(24rem, 1fr)); gap: 0 1.5rem; align-items: start; }
-table { width: 100%; border-collapse: collapse; font-size: .84rem; margin: .4rem 0 1rem; }
-th, td { padding: .28rem .5rem; text-align: left; vertical-align: top; border-bottom: 1px solid var(--rule); }
-th { font-weight: 600; border-bottom: 1.5px solid var(--ink); }
-td.n, th.n { text-align: right; white-space: nowrap; font-variant-numeric: tabular-nums; }
-td.code, th.code { white-space: nowrap; font-family: "DejaVu Sans Mono", Menlo, Consolas, monospace; font-size: .94em; }
-tr.rejected td { font-weight: 600; }
-table.compact { font-size: .76rem; }
-table.compact td, table.compact th { padding: .18rem .4rem; }
-.verdict { margin: 1rem 0; padding: .7rem 1rem; border: 1.5px solid; border-left-width: 9px; }
-.verdict .cls { margin: 0; font-size: 1.7rem; font-weight: 700; line-height: 1.2; text-transform: capitalize; }
-.verdict p { margin: .25rem 0 0; }
-.cls-chaotic { color: #b3412a; border-color: #b3412a; }
-.cls-stochastic { color: #2f6f8f; border-color: #2f6f8f; }
-.cls-regular { color: #5b8a2e; border-color: #5b8a2e; }
-.cls-undetermined { color: #555555; border-color: #6f6f6f; }
-.txt-chaotic { color: #b3412a; }
-.txt-stochastic { color: #2f6f8f; }
-.txt-regular { color: #5b8a2e; }
-.verdict p.line { color: var(--ink); font-size: .95rem; }
-.agreement { margin: .8rem 0; padding: .4rem .8rem; border-left: 3px solid var(--accent); font-size: .92rem; }
-.caution { margin: 1.2rem 0; padding: .6rem 1rem; border: 1px solid var(--ink); font-size: .92rem; }
-ul.notes { margin: .3rem 0 .8rem; padding-left: 1.3rem; font-size: .9rem; }
-.muted { color: var(--muted); }
-.failed { color: #8a2b16; font-size: .9rem; }
-ol.refs { font-size: .84rem; padding-left: 1.4rem; }
-footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rule); font-size: .78rem; color: var(--muted); }
-@page { margin: 14mm 13mm; }
-@media print {
-  html { font-size: 12px; background: #ffffff; }
-  body { max-width: none; padding: 0; font-size: 9.5pt; line-height: 1.4; background: #ffffff; }
-  nav { display: none; }
-  section { break-before: page; page-break-before: always; }
-  #verdict { break-before: auto; page-break-before: auto; }
-  h2 { margin-top: 0; break-after: avoid; page-break-after: avoid; }
-  #verdict h2 { margin-top: 1.2rem; }
-  h3 { margin-top: .9rem; break-after: avoid; page-break-after: avoid; }
-  figure { margin: .5rem 0 .8rem; }
-  figcaption { font-size: 7.5pt; }
-  .pair { grid-template-columns: 1fr 1fr; gap: 0 5mm; }
-  svg.fig { max-height: 100mm; }
-  table { font-size: 8pt; }
-  table.compact { font-size: 7.5pt; }
-  ol.refs { font-size: 8pt; }
-  tr, .verdict, .caution { break-inside: avoid; page-break-inside: avoid; }
-  a { color: inherit; text-decoration: none; }
-}
-</style>
-</head>
-<body>
-<header id="summary">
-<p class="kicker">{{.Kicker}}</p>
-<h1>{{.Source}}</h1>
-<dl class="facts">
-{{- range .Facts}}
-<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
-{{- end}}
-</dl>
+// pageTemplate is the HTML of the single-trace report (its head, style
+// sheet and figure parts are in page.go).
+const pageTemplate = `{{template "head" .}}
+{{template "masthead" .}}
 {{- if .TraceWarnings}}
 <p><strong>Notes from reading the file:</strong></p>
-<ul class="notes">
-{{- range .TraceWarnings}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .TraceWarnings}}
 </ul>
 {{- end}}
-<nav>
-{{- range .Nav}}
-<a href="#{{.Label}}">{{.Value}}</a>
-{{- end}}
+<nav>{{template "nav" .Nav}}
 </nav>
 </header>
 
@@ -120,18 +26,12 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 {{template "figure" .ProbFig}}
 {{- if .Reasons}}
 <p><strong>Why undetermined:</strong></p>
-<ul class="notes">
-{{- range .Reasons}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .Reasons}}
 </ul>
 {{- end}}
 <h3>Warnings</h3>
 {{- if .Warnings}}
-<ul class="notes">
-{{- range .Warnings}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .Warnings}}
 </ul>
 {{- else}}
 <p class="muted">No recording-quality warnings (length, clipping, quantisation, drift, mains interference).</p>
@@ -173,10 +73,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 {{- end}}
 </div>
 {{- if .GraphRows}}
-<dl class="facts two">
-{{- range .GraphRows}}
-<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
-{{- end}}
+<dl class="facts two">{{template "facts" .GraphRows}}
 </dl>
 {{- end}}
 </section>
@@ -195,6 +92,16 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <p>{{.ClusteringNote}}</p>
 {{- else}}
 <p class="failed">Not shown: the visibility graphs could not be built (see section 3).</p>
+{{- end}}
+{{- with .NetworkTable}}
+<h3>One stretch, four networks</h3>
+<p>{{.Note}}</p>
+<table class="compact">
+<tr><th>metric</th>{{range .Head}}<th>{{.}}</th>{{end}}</tr>
+{{- range .Rows}}
+<tr><td>{{.Label}}</td>{{range .Cells}}<td>{{.}}</td>{{end}}</tr>
+{{- end}}
+</table>
 {{- end}}
 </section>
 
@@ -242,10 +149,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 {{template "figure" .}}
 {{- end}}
 {{- if .SurrogateNotes}}
-<ul class="notes">
-{{- range .SurrogateNotes}}
-<li>{{.}}</li>
-{{- end}}
+<ul class="notes">{{template "notes" .SurrogateNotes}}
 </ul>
 {{- end}}
 </section>
@@ -267,10 +171,7 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 </tbody>
 </table>
 <h3>Model</h3>
-<dl class="facts two">
-{{- range .ModelFacts}}
-<dt>{{.Label}}</dt><dd>{{.Value}}</dd>
-{{- end}}
+<dl class="facts two">{{template "facts" .ModelFacts}}
 </dl>
 <h3>References</h3>
 <ol class="refs">
@@ -312,18 +213,12 @@ footer { margin-top: 2.5rem; padding-top: .5rem; border-top: 1px solid var(--rul
 <footer>{{.Footer}}</footer>
 </body>
 </html>
-{{/* Sub-templates: a figure with its caption; a table of surrogate tests; the sections' "not shown" lines. */ -}}
-{{define "figure"}}<figure>
-{{.SVG}}
-<figcaption>{{.Caption}}</figcaption>
-</figure>{{end}}
-{{- define "tests"}}<table>
+{{/* Sub-template: a table of surrogate tests. The figure and "not shown" sub-templates are in page.go. */ -}}
+{{define "tests"}}<table>
 <thead><tr><th class="code">statistic</th><th class="n">observed</th><th class="n">surrogates (mean ± sd)</th><th class="n">z</th><th class="n">p</th><th class="n">Holm p</th><th>verdict</th></tr></thead>
 <tbody>
 {{- range .}}
 <tr{{if .Rejected}} class="rejected"{{end}}><td class="code">{{.Stat}}</td><td class="n">{{.Observed}}</td><td class="n">{{.Surrogates}}</td><td class="n">{{.Z}}</td><td class="n">{{.P}}</td><td class="n">{{.PHolm}}</td><td>{{.Verdict}}</td></tr>
 {{- end}}
 </tbody>
-</table>{{end}}
-{{- define "failures"}}{{range .}}
-<p class="failed">Not shown: {{.}}</p>{{end}}{{end}}`
+</table>{{end}}`

@@ -26,34 +26,12 @@ if [ ! -s "$out/report.html" ]; then
 	exit 1
 fi
 
-browser=""
-for b in chromium chromium-browser google-chrome; do
-	if command -v "$b" >/dev/null 2>&1; then
-		browser=$b
-		break
-	fi
-done
-if [ -z "$browser" ]; then
-	echo "render-report: Chromium not found; skipping the screenshot (report at $out/report.html)"
-	exit 0
-fi
-
-profile=$(mktemp -d)
-trap 'rm -rf "$profile"' EXIT
-sandbox=""
-if [ "$(id -u)" = 0 ]; then
-	sandbox="--no-sandbox" # Chromium refuses to run as root with its sandbox
-fi
-"$browser" --headless $sandbox --disable-gpu --disable-background-networking \
-	--disable-component-update --disable-sync --no-first-run \
-	--user-data-dir="$profile" --hide-scrollbars \
-	--screenshot="$out/report.png" --window-size=1200,${HEIGHT:-9000} \
-	"file://$out/report.html" >/dev/null 2>&1
-"$browser" --headless $sandbox --disable-gpu --disable-background-networking \
-	--disable-component-update --disable-sync --no-first-run \
-	--user-data-dir="$profile" --no-pdf-header-footer \
-	--print-to-pdf="$out/report.pdf" \
-	"file://$out/report.html" >/dev/null 2>&1 || echo "render-report: PDF print failed (screenshot kept)"
+name=render-report page="$out/report.html"
+. "$root/scripts/headless.sh"
+headless --hide-scrollbars --screenshot="$out/report.png" --window-size=1200,${HEIGHT:-9000} \
+	"file://$out/report.html"
+headless --no-pdf-header-footer --print-to-pdf="$out/report.pdf" \
+	"file://$out/report.html" || echo "render-report: PDF print failed (screenshot kept)"
 echo "report:     $out/report.html"
 echo "screenshot: $out/report.png"
 [ -s "$out/report.pdf" ] && echo "print view: $out/report.pdf"

@@ -2,10 +2,14 @@ package trace
 
 import (
 	"bytes"
+	"encoding/binary"
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 	"testing"
+
+	"codeberg.org/sbinet/npyio/npy"
 )
 
 // benchCSV renders n rows "t,value" with a header, the shape of a typical
@@ -73,4 +77,49 @@ func BenchmarkReadSingleColumn(b *testing.B) {
 func BenchmarkReadF64LE(b *testing.B) {
 	const n = 1_000_000
 	benchRead(b, rawF64(vals(n)), Options{Format: FormatF64LE}, n)
+}
+
+// BenchmarkReadNPY reads 10^6 float64 samples from a .npy file (through
+// npyio, the file written by its writer).
+func BenchmarkReadNPY(b *testing.B) {
+	const n = 1_000_000
+	var buf bytes.Buffer
+	if err := npy.Write(&buf, vals(n)); err != nil {
+		b.Fatal(err)
+	}
+	benchRead(b, buf.Bytes(), Options{}, n)
+}
+
+// BenchmarkReadTDMS reads 10^6 DBL samples of one channel out of two, in
+// 100 segments of 10^4 values per channel.
+func BenchmarkReadTDMS(b *testing.B) {
+	const n, per = 1_000_000, 10_000
+	le := binary.LittleEndian
+	x := vals(n)
+	var file []byte
+	for s := 0; s < n/per; s++ {
+		meta := le.AppendUint32(nil, 2)
+		meta = append(meta, tdmsChannelMeta(le, "/'g'/'Id'", tdsDouble, per)...)
+		meta = append(meta, tdmsChannelMeta(le, "/'g'/'Vg'", tdsSingle, per)...)
+		var raw []byte
+		for _, v := range x[s*per : (s+1)*per] {
+			raw = le.AppendUint64(raw, math.Float64bits(v))
+		}
+		raw = append(raw, make([]byte, 4*per)...)
+		file = append(file, leadIn(0x0E, len(meta), len(raw), le)...)
+		file = append(append(file, meta...), raw...)
+	}
+	benchRead(b, file, Options{Column: "g/Id"}, n)
+}
+
+// BenchmarkReadWAV reads 10^6 frames of a stereo 24-bit PCM file, one
+// channel.
+func BenchmarkReadWAV(b *testing.B) {
+	const n = 1_000_000
+	data := make([]byte, 6*n)
+	for i := range n {
+		v := int32(val(i) * 5e5) // within ±2^23
+		data[6*i], data[6*i+1], data[6*i+2] = byte(v), byte(v>>8), byte(v>>16)
+	}
+	benchRead(b, wavFile(1, 2, 48000, 24, 6, data), Options{Column: "1"}, n)
 }

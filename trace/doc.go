@@ -14,6 +14,21 @@
 // binary files, UTF-16 without byte-order mark) fails with ErrBinary, as
 // does a NUL byte in a line before the table.
 //
+// # Binary containers
+//
+// NumPy .npy and .npz (decoded by codeberg.org/sbinet/npyio after this
+// package checks the header), NI TDMS (read from NI's "TDMS File Format
+// Internal Structure") and WAV (PCM 8/16/24/32-bit, IEEE float 32/64-bit)
+// are recognised by their magic bytes under FormatAuto, or named by
+// FormatNPY, FormatNPZ, FormatTDMS and FormatWAV. Options.Column chooses
+// the column, member or channel (see Options.Column). A TDMS channel's
+// wf_increment becomes Trace.Interval (seconds) and its unit_string
+// Trace.Unit; a WAV file's sample rate gives Interval = 1/rate. A file
+// arriving on a pipe or gzip-compressed is held in memory (at most
+// 16·MaxSamples bytes plus 1 MiB); a file given by path is read in place.
+// Errors are located by NPZ member, TDMS segment and byte offset
+// (ErrMalformed, ErrUnsupported, ErrTruncated).
+//
 // # Text layout detection
 //
 // Nothing needs to be said about a text file; the reader works it out:

@@ -56,27 +56,49 @@ var (
 	// ErrOption: an Options field holds a value outside its documented
 	// range.
 	ErrOption = errors.New("invalid option")
+	// ErrMalformed: a binary container (NPY, NPZ, TDMS, WAV) whose
+	// structure breaks its format description: a wrong magic tag, a
+	// length that runs past the end of the file or its part, an
+	// inconsistent header. The *Error's Offset (and Segment, Member)
+	// locate it.
+	ErrMalformed = errors.New("malformed file")
+	// ErrUnsupported: a well-formed binary container holding something
+	// tracesift does not read: complex, string or object arrays, arrays
+	// of more than two dimensions, compressed or 8-bit-float WAV, TDMS
+	// DAQmx raw data.
+	ErrUnsupported = errors.New("unsupported content")
 )
 
 // Error is a read failure located in the input. Its message is one line:
 //
-//	FILE[ line N | sample N][, column C[ ("NAME")]]: REASON[: DETAIL]
+//	FILE[ member "M"][ segment S][ byte B][ line N | sample N][, column C[ ("NAME")]]: REASON[: DETAIL]
 //
 // for example
 //
 //	demo.csv line 17, column 2 ("Id"): not a number: "1.2.3"
+//	run.tdms segment 3, byte 1042: malformed file: TDMS lead-in: tag "TDSx", want "TDSm"
 //
 // REASON is the text of Err. Line numbers count physical lines of the
 // (decompressed) text from 1, including comment and blank lines; columns
-// count from 1; samples of raw binary input count from 1.
+// count from 1; samples of binary input count from 1 along the chosen
+// channel; byte offsets count from 0 in the (decompressed) file, or in
+// the NPZ member when Member is set; TDMS segments count from 1.
 type Error struct {
 	File   string // source name: the path, "stdin", or Options.Name
 	Line   int    // 1-based text line, 0 when the error is not tied to a line
-	Sample int    // 1-based sample of raw binary input, 0 otherwise
+	Sample int    // 1-based sample of binary input, 0 otherwise
 	Column int    // 1-based column, 0 when the error is not tied to a column
 	Name   string // header name of Column, "" when there is no header
 	Err    error  // one of the Err* sentinels, or an I/O or gzip error
 	Detail string // the offending field, counts or a hint; may be ""
+	// Member is the NPZ archive member the error is in, "" otherwise.
+	Member string
+	// Segment is the 1-based TDMS segment, 0 when not tied to one.
+	Segment int
+	// Offset is the 0-based byte offset of the fault when HasOffset is
+	// set (in the file, or in Member's bytes).
+	Offset    int64
+	HasOffset bool
 	// Count and Limit are the numbers behind ErrTooShort (samples read,
 	// the minimum) and ErrTooLarge (samples seen, the maximum), so that a
 	// caller can phrase its own advice; both 0 for other errors.
@@ -87,6 +109,21 @@ type Error struct {
 func (e *Error) Error() string {
 	var b strings.Builder
 	b.WriteString(e.File)
+	if e.Member != "" {
+		fmt.Fprintf(&b, " member %s", echo.Quote(e.Member))
+	}
+	if e.Segment > 0 {
+		fmt.Fprintf(&b, " segment %d", e.Segment)
+	}
+	if e.HasOffset {
+		if e.Segment > 0 {
+			b.WriteByte(',')
+		}
+		fmt.Fprintf(&b, " byte %d", e.Offset)
+	}
+	if (e.Segment > 0 || e.HasOffset) && (e.Line > 0 || e.Sample > 0) {
+		b.WriteByte(',')
+	}
 	switch {
 	case e.Line > 0:
 		b.WriteString(" line ")

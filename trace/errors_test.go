@@ -192,7 +192,7 @@ func TestReadErrors(t *testing.T) {
 		{"line too long", append([]byte("1\n2\n"), bytes.Repeat([]byte("1"), MaxLineBytes+10)...), Options{}, ErrLineTooLong,
 			"demo.csv line 3: line too long: longer than 16 MiB"},
 		{"bad format", []byte("1\n"), Options{Format: "xml"}, ErrOption,
-			`demo.csv: invalid option: format "xml" (want auto, csv, f32le or f64le)`},
+			`demo.csv: invalid option: format "xml" (want auto, csv, f32le, f64le, npy, npz, tdms or wav)`},
 		{"bad NaN policy", []byte("1\n"), Options{NaN: "zero"}, ErrOption,
 			`demo.csv: invalid option: NaN policy "zero" (want reject, drop or interpolate)`},
 		{"negative min length", []byte("1\n"), Options{MinLength: -1}, ErrOption,

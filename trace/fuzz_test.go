@@ -70,37 +70,45 @@ func FuzzRead(f *testing.F) {
 			Name:      "fuzz",
 		}
 		tr, err := Read(bytes.NewReader(data), opts)
-		if err != nil {
-			var e *Error
-			if !errors.As(err, &e) {
-				t.Fatalf("error %v (%T) is not an *Error", err, err)
-			}
-			if bytes.ContainsAny([]byte(err.Error()), "\n\r") {
-				t.Fatalf("multi-line message %q", err)
-			}
-			return
-		}
-		if len(tr.Values) < opts.MinLength {
-			t.Fatalf("%d values < MinLength %d", len(tr.Values), opts.MinLength)
-		}
-		constant := true
-		for _, v := range tr.Values {
-			if math.IsNaN(v) || math.IsInf(v, 0) {
-				t.Fatalf("non-finite value %v accepted", v)
-			}
-			constant = constant && v == tr.Values[0]
-		}
-		if constant {
-			t.Fatalf("constant series accepted")
-		}
-		if tr.Interval < 0 || math.IsNaN(tr.Interval) || math.IsInf(tr.Interval, 0) {
-			t.Fatalf("Interval = %v", tr.Interval)
-		}
-		if (tr.Interval > 0) != (tr.TimeColumn == 1) {
-			t.Fatalf("Interval %v with TimeColumn %d", tr.Interval, tr.TimeColumn)
-		}
-		if tr.ColumnIndex < 1 || tr.ColumnIndex > tr.Columns || tr.ColumnIndex == tr.TimeColumn {
-			t.Fatalf("ColumnIndex %d of %d (time %d)", tr.ColumnIndex, tr.Columns, tr.TimeColumn)
-		}
+		checkRead(t, tr, err, opts)
 	})
+}
+
+// checkRead fails t unless err is an *Error with a one-line message, or
+// tr is a valid trace: finite, non-constant values, at least MinLength of
+// them, a sane interval and column numbers.
+func checkRead(t *testing.T, tr Trace, err error, opts Options) {
+	t.Helper()
+	if err != nil {
+		var e *Error
+		if !errors.As(err, &e) {
+			t.Fatalf("error %v (%T) is not an *Error", err, err)
+		}
+		if bytes.ContainsAny([]byte(err.Error()), "\n\r") {
+			t.Fatalf("multi-line message %q", err)
+		}
+		return
+	}
+	if len(tr.Values) < opts.MinLength {
+		t.Fatalf("%d values < MinLength %d", len(tr.Values), opts.MinLength)
+	}
+	constant := true
+	for _, v := range tr.Values {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			t.Fatalf("non-finite value %v accepted", v)
+		}
+		constant = constant && v == tr.Values[0]
+	}
+	if constant {
+		t.Fatalf("constant series accepted")
+	}
+	if tr.Interval < 0 || math.IsNaN(tr.Interval) || math.IsInf(tr.Interval, 0) {
+		t.Fatalf("Interval = %v", tr.Interval)
+	}
+	if tr.Format == FormatCSV && (tr.Interval > 0) != (tr.TimeColumn == 1) {
+		t.Fatalf("Interval %v with TimeColumn %d", tr.Interval, tr.TimeColumn)
+	}
+	if tr.ColumnIndex < 1 || tr.ColumnIndex > tr.Columns || tr.ColumnIndex == tr.TimeColumn {
+		t.Fatalf("ColumnIndex %d of %d (time %d)", tr.ColumnIndex, tr.Columns, tr.TimeColumn)
+	}
 }

@@ -12,8 +12,11 @@ type Format string
 // Input formats. The zero value "" means FormatAuto. Gzip compression is
 // recognised for every format (see Read).
 const (
-	// FormatAuto reads delimited text and detects everything else (see
-	// the package documentation). Raw binary is never guessed.
+	// FormatAuto recognises NPY, NPZ, TDMS and WAV by their magic bytes
+	// (and refuses a file whose name ends in .npy, .npz, .tdms or .wav
+	// without them), and reads everything else as delimited text with
+	// the detection the package documentation describes. Raw binary is
+	// never guessed.
 	FormatAuto Format = "auto"
 	// FormatCSV reads delimited text with the same detection as
 	// FormatAuto; "text" is accepted as another spelling.
@@ -24,7 +27,27 @@ const (
 	// FormatF64LE reads raw little-endian IEEE-754 float64 samples, one
 	// channel, no header.
 	FormatF64LE Format = "f64le"
+	// FormatNPY reads a NumPy .npy array (format versions 1 to 3): 1-D,
+	// or 2-D with Options.Column choosing the column, of any integer or
+	// floating-point dtype in either byte order.
+	FormatNPY Format = "npy"
+	// FormatNPZ reads one array of a NumPy .npz archive (zip, stored or
+	// deflated); Options.Column names the member ("x" or "x.npy"), and
+	// "x/2" takes column 2 of a 2-D member.
+	FormatNPZ Format = "npz"
+	// FormatTDMS reads one channel of an NI TDMS file; Options.Column
+	// names it as "group/channel" (or "channel" when that is unique, or
+	// a 1-based index among the channels that hold numeric data).
+	FormatTDMS Format = "tdms"
+	// FormatWAV reads one channel of a RIFF WAVE file: PCM integer of 8,
+	// 16, 24 or 32 bits or IEEE float of 32 or 64 bits; Options.Column
+	// is the 1-based channel.
+	FormatWAV Format = "wav"
 )
+
+// Formats lists the values Options.Format accepts (besides "" and the
+// spelling "text" of FormatCSV), for help texts and usage checks.
+var Formats = []Format{FormatAuto, FormatCSV, FormatF32LE, FormatF64LE, FormatNPY, FormatNPZ, FormatTDMS, FormatWAV}
 
 // NaNPolicy says what to do with non-finite or missing values (NaN, ±Inf,
 // numbers beyond float64 range, empty fields, NA, N/A, null) in the value
@@ -66,7 +89,11 @@ type Options struct {
 	// whole header field ("Id (A)") or its name without unit ("Id"),
 	// exactly first, then ignoring case. Empty means automatic: the only
 	// non-time column, else the first one (with a warning). Raw binary
-	// input has one column, so only "" and "1" are valid there.
+	// input has one column, so only "" and "1" are valid there. For the
+	// binary containers it chooses the array column (NPY), the member
+	// and column ("x", "x/2"; NPZ), the channel ("group/channel" or a
+	// 1-based index; TDMS) or the 1-based channel (WAV); empty again
+	// means the only one, else the first (with a warning).
 	Column string
 	// Format is the input encoding; "" means FormatAuto. Matching is
 	// case-insensitive.
@@ -111,8 +138,10 @@ func (o Options) resolve(name string) (config, error) {
 		c.format = FormatF32LE
 	case "f64le":
 		c.format = FormatF64LE
+	case "npy", "npz", "tdms", "wav":
+		c.format = Format(strings.ToLower(strings.TrimSpace(string(o.Format))))
 	default:
-		return c, bad("format %q (want auto, csv, f32le or f64le)", o.Format)
+		return c, bad("format %q (want auto, csv, f32le, f64le, npy, npz, tdms or wav)", o.Format)
 	}
 	switch strings.ToLower(strings.TrimSpace(string(o.NaN))) {
 	case "", "reject":

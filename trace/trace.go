@@ -65,7 +65,7 @@ func ReadFile(path string, opts Options) (Trace, error) {
 		if name == "" {
 			name = "stdin"
 		}
-		return read(os.Stdin, name, -1, false, opts)
+		return read(os.Stdin, name, -1, nil, false, opts)
 	}
 	if name == "" {
 		name = path
@@ -84,7 +84,11 @@ func ReadFile(path string, opts Options) (Trace, error) {
 			size = st.Size()
 		}
 	}
-	return read(f, name, size, strings.HasSuffix(strings.ToLower(path), ".gz"), opts)
+	var ra io.ReaderAt
+	if size >= 0 {
+		ra = f
+	}
+	return read(f, name, size, ra, strings.HasSuffix(strings.ToLower(path), ".gz"), opts)
 }
 
 // Read reads one trace from r according to opts and validates it.
@@ -105,20 +109,30 @@ func Read(r io.Reader, opts Options) (Trace, error) {
 		name = "input"
 	}
 	size := int64(-1)
+	var ra io.ReaderAt
 	switch v := r.(type) {
-	case interface{ Len() int }: // bytes.Reader, strings.Reader, bytes.Buffer
+	case *bytes.Reader:
+		size = int64(v.Len())
+		if pos, err := v.Seek(0, io.SeekCurrent); err == nil {
+			ra = io.NewSectionReader(v, pos, size)
+		}
+	case interface{ Len() int }: // strings.Reader, bytes.Buffer
 		size = int64(v.Len())
 	case *os.File:
 		if st, err := v.Stat(); err == nil && st.Mode().IsRegular() {
 			if pos, err := v.Seek(0, io.SeekCurrent); err == nil {
 				size = st.Size() - pos
+				ra = io.NewSectionReader(v, pos, size)
 			}
 		}
 	}
-	return read(r, name, size, false, opts)
+	return read(r, name, size, ra, false, opts)
 }
 
-func read(r io.Reader, name string, size int64, gzName bool, opts Options) (Trace, error) {
+// read reads one trace from r (size bytes when known, else -1); ra, when
+// not nil, gives random access to the same bytes from where r starts, so
+// that a binary container need not be copied into memory.
+func read(r io.Reader, name string, size int64, ra io.ReaderAt, gzName bool, opts Options) (Trace, error) {
 	cfg, err := opts.resolve(name)
 	if err != nil {
 		return Trace{}, err
@@ -130,7 +144,8 @@ func read(r io.Reader, name string, size int64, gzName bool, opts Options) (Trac
 		return Trace{}, &Error{File: name, Err: err}
 	}
 	src := io.Reader(br)
-	if bytes.Equal(magic, []byte{0x1f, 0x8b, 0x08}) {
+	gzipped := bytes.Equal(magic, []byte{0x1f, 0x8b, 0x08})
+	if gzipped {
 		zr, err := gzip.NewReader(br)
 		if err != nil {
 			if err == io.ErrUnexpectedEOF || err == io.EOF {
@@ -139,12 +154,33 @@ func read(r io.Reader, name string, size int64, gzName bool, opts Options) (Trac
 			return Trace{}, &Error{File: name, Err: err}
 		}
 		defer zr.Close()
-		src, size = zr, -1
+		src, size = bufio.NewReaderSize(zr, 64<<10), -1
 	} else if gzName {
 		warnings = append(warnings, "the name ends in .gz but the data are not gzip-compressed; read as they are")
 	}
+	format := cfg.format
+	if format == FormatAuto {
+		head, err := src.(*bufio.Reader).Peek(magicLen)
+		if err != nil && err != io.EOF && err != bufio.ErrBufferFull {
+			if errors.Is(err, io.ErrUnexpectedEOF) {
+				return Trace{}, &Error{File: name, Err: ErrTruncated, Detail: "compressed stream ends early (file cut off?)"}
+			}
+			return Trace{}, &Error{File: name, Err: err}
+		}
+		if format, err = detect(head, name); err != nil {
+			return Trace{}, err
+		}
+	}
 	var tr Trace
-	switch cfg.format {
+	switch format {
+	case FormatNPY, FormatNPZ, FormatTDMS, FormatWAV:
+		var c container
+		if !gzipped && ra != nil && size >= 0 {
+			c = container{r: ra, size: size, name: name}
+		} else if c, err = loadContainer(src, name, cfg); err != nil {
+			return Trace{}, err
+		}
+		tr, err = readContainer(c, format, cfg)
 	case FormatF32LE, FormatF64LE:
 		tr, err = readRaw(src, name, size, cfg)
 	default:

@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"compress/gzip"
+	"encoding/binary"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -128,7 +129,39 @@ func catalogueInputs() []catalogueInput {
 		{"missing path", func(_ *testing.T, dir string) string { return filepath.Join(dir, "absent.csv") }, "no such file"},
 		{"huge line", text("huge.csv", append([]byte("t,value\n0,"), bytes.Repeat([]byte("1"), 17<<20)...)), "line too long"},
 		{"binary", text("blob.csv", bytes.Repeat([]byte{0, 0, 0x40, 0x9f, 0, 1, 0xff, 0x7f}, 4096)), "looks binary"},
+		// Binary containers (the reference files of testdata/formats, some
+		// damaged; offsets as in trace.TestContainerErrors).
+		{"npy", text("f8.npy", reference("f8.npy", nil)), ""},
+		{"truncated npy", text("cut.npy", reference("f8.npy", func(b []byte) []byte { return b[:200] })),
+			"cut.npy byte 200: truncated: the <f8 array of shape (300,) needs 2400 bytes of data, the file holds 72"},
+		{"npy of wrong dtype", text("complex.npy", reference("f8.npy", func(b []byte) []byte {
+			return bytes.Replace(b, []byte("'<f8'"), []byte("'<c8'"), 1) // 300 complex64 need the same 2400 bytes
+		})), `complex.npy byte 10: unsupported content: dtype "<c8"`},
+		{"npz cut off", text("cut.npz", reference("run.npz", func(b []byte) []byte { return b[:3000] })),
+			"cut.npz: malformed file: NPZ (zip) archive"},
+		{"bad TDMS lead-in", text("bad.tdms", reference("../demo/D03-stressed-1.20V.tdms", func(b []byte) []byte {
+			seg2 := 28 + binary.LittleEndian.Uint64(b[12:]) // lead-in, 377 bytes of meta data, 1024 doubles: 8597
+			copy(b[seg2:], "TDSx")
+			return b
+		})), `bad.tdms segment 2, byte 8597: malformed file: lead-in tag "TDSx", want "TDSm"`},
+		{"WAV with bad header", text("bad.wav", reference("pcm16.wav", func(b []byte) []byte {
+			b[32] = 3 // block alignment 3 for one 16-bit channel
+			return b
+		})), "bad.wav byte 32: malformed file: block alignment 3, want 1 channels × 2 bytes = 2"},
 	}
+}
+
+// reference returns a file of testdata/formats, changed by damage when
+// it is not nil.
+func reference(name string, damage func([]byte) []byte) []byte {
+	b, err := os.ReadFile(filepath.Join("..", "..", "testdata", "formats", name))
+	if err != nil {
+		panic(err)
+	}
+	if damage != nil {
+		b = damage(b)
+	}
+	return b
 }
 
 // catalogueCommand runs one command on one input path; it returns the

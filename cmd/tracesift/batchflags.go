@@ -26,17 +26,18 @@ type sourceOptions struct {
 func (o *sourceOptions) bind(f *pflag.FlagSet) {
 	f.StringArrayVar(&o.filesFrom, "files-from", nil, "read trace paths from this list (one per line, or NUL-separated; - for stdin); repeatable")
 	f.StringArrayVar(&o.campaign, "campaign", nil, "take the traces of this campaign description (the CSV of 'tracesift survey': its file column); repeatable")
-	f.StringArrayVar(&o.include, "include", nil, "in directories, take only files whose name matches this glob (e.g. '*.csv', '*.csv.gz'); repeatable; default: every file except hidden and Markdown files")
+	f.StringArrayVar(&o.include, "include", nil, "in directories, take only files whose name matches this glob (e.g. '*.csv', '*.csv.gz'); repeatable; default: every file except hidden, Markdown and .journal files")
 }
 
 // sourceHelp is the help paragraph of the input sources.
 const sourceHelp = `Inputs: FILE arguments may be files, directories (walked recursively:
-every file except hidden and Markdown files, or those matching --include),
-or - (stdin). --files-from LIST adds the paths listed in LIST (relative to
-the current directory; - reads the list from stdin), --campaign CSV the
-traces of a campaign description (relative to its directory). The batch
-is sorted by path and holds each file once, however often it was named; a
-path that does not exist is reported once, as a failed input.`
+every file except hidden, Markdown and .journal files, or those matching
+--include), or - (stdin). --files-from LIST adds the paths listed in LIST
+(relative to the current directory; - reads the list from stdin),
+--campaign CSV the traces of a campaign description (relative to its
+directory). The batch is sorted by path and holds each file once, however
+often it was named; a path that does not exist is reported once, as a
+failed input.`
 
 // collect gathers the batch: sorted, each file once.
 func (o *sourceOptions) collect(e *env, args []string) ([]filelist.Entry, error) {

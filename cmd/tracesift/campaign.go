@@ -14,10 +14,12 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/tracesift/tracesift/campaign"
+	"github.com/tracesift/tracesift/classifier"
 	"github.com/tracesift/tracesift/features"
 	"github.com/tracesift/tracesift/features/surrogate"
 	"github.com/tracesift/tracesift/groups"
 	"github.com/tracesift/tracesift/internal/filelist"
+	"github.com/tracesift/tracesift/report"
 	"github.com/tracesift/tracesift/trace"
 )
 
@@ -41,6 +43,10 @@ type surveyOptions struct {
 	reference  string
 	tablesOnly bool
 	noFigures  bool
+	model      string
+	noVerdicts bool
+	title      string
+	format     string
 }
 
 // Output file names of survey.
@@ -50,6 +56,7 @@ const (
 	surveyTestsCSV    = "tests.csv"
 	surveyTestsJSONL  = "tests.jsonl"
 	surveySummary     = "summary.md"
+	surveyReport      = "report.html"
 	surveyHistograms  = "distributions.csv"
 	surveyFigures     = "figures"
 	surveyJournal     = "traces.journal"
@@ -75,8 +82,9 @@ say otherwise. Rows that cannot be used (a missing file, a row with more
 fields than columns, an empty group) are reported one line each with their
 line number and left out.
 
-For every trace: the metrics (visibility-graph and increment features by
-default), the same metrics on --surrogates surrogates of each --methods
+For every trace: the classifier's verdict (the embedded model, or --model;
+--no-verdicts skips it), the metrics (visibility-graph and increment
+features by default), the same metrics on --surrogates surrogates of each --methods
 (shuffle: temporal correlations destroyed; gauss: values Gaussianised, rank
 order kept; iaaft: linear correlations and values kept), and the degree,
 clustering and increment distributions. Surrogates are seeded by --seed and
@@ -97,13 +105,20 @@ Benjamini–Hochberg both reported):
 Families in which no test can reach the adjusted level are named, with the
 number of surrogates, pairs or traces that could.
 
--o DIR receives traces.csv and traces.jsonl (one row per trace × metric ×
-condition, plus the per-trace distributions), tests.csv and tests.jsonl (one
-row per test), distributions.csv (the pooled distributions per group and
-level, binned on the distinct values where they are discrete), summary.md,
-one Markdown page per level and a PNG per metric (figures/). --tables-only stops after the per-trace tables: run parts of a
-campaign on several machines, concatenate their traces.csv and give them to
---from for the statistics, which are then exactly those of one run.
+-o DIR receives report.html (one self-contained page: the verdict grid,
+each metric against the parameter with its surrogate bands, the pooled
+distributions with fitted tails, the tables of tests, the methods; open it
+in any browser, nothing is loaded from the network), traces.csv and
+traces.jsonl (one row per trace × metric × condition, plus the per-trace
+distributions and verdicts), tests.csv and tests.jsonl (one row per test),
+distributions.csv (the pooled distributions per group and level, binned on
+the distinct values where they are discrete), summary.md, one Markdown page
+per level and a PNG per metric (figures/); --format parquet adds
+traces.parquet, tests.parquet and distributions.parquet with the same
+columns and values as the CSV tables. --tables-only stops after the
+per-trace tables: run parts of a campaign on several machines, concatenate
+their traces.csv and give them to --from for the statistics and the report,
+which are then exactly those of one run.
 
 Every trace's rows are appended to DIR/traces.journal the moment the trace
 is measured (a failure as its file, line and reason); --resume skips the
@@ -143,9 +158,13 @@ the traces.csv of one run, naming missing and duplicated traces, for
 	f.StringVar(&o.adjust, "adjust", "holm", "adjustment that decides significance: holm or bh (both are reported)")
 	f.StringVar(&o.reference, "reference", "", "group the others are compared against (default: the first in alphabetical order)")
 	f.BoolVar(&o.tablesOnly, "tables-only", false, "write the per-trace tables only (to merge with --from later)")
-	f.BoolVar(&o.noFigures, "no-figures", false, "do not draw the PNG figures")
+	f.BoolVar(&o.noFigures, "no-figures", false, "do not draw the PNG figures (report.html is written all the same)")
+	f.StringVar(&o.model, "model", "", "classifier model file for the verdicts (default: the embedded model)")
+	f.BoolVar(&o.noVerdicts, "no-verdicts", false, "do not classify the traces (no verdict grid)")
+	f.StringVar(&o.title, "title", "", "the campaign's name in report.html (default: the campaign description, the --match pattern, or the --from tables)")
+	f.StringVar(&o.format, "format", formatCSV, "table format: csv, or parquet to write a .parquet copy beside every CSV table (traces, tests, distributions)")
 	o.shard.bind(f)
-	f.BoolVar(&o.resume, "resume", false, "skip the traces DIR/"+surveyJournal+" already holds with the same content checksum, campaign row and options")
+	f.BoolVar(&o.resume, "resume", false, "skip the traces DIR/"+surveyJournal+" already holds with the same content checksum, campaign row, options and model")
 	return c
 }
 
@@ -158,6 +177,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 	}
 	if !(o.alpha > 0 && o.alpha < 1) {
 		return usagef("--alpha %g: want 0 < alpha < 1", o.alpha)
+	}
+	if err := checkFormat(o.format, formatCSV, formatParquet); err != nil {
+		return err
 	}
 	adjust, err := groups.ParseAdjustment(o.adjust)
 	if err != nil || adjust == groups.AdjustNone {
@@ -182,8 +204,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 	}
 
 	var rows []campaign.Row
-	var leftOut []string
+	var leftOut, leftOutHTML []string
 	var failed error
+	source := strings.Join(o.from, ", ")
 	if len(o.from) > 0 {
 		for _, name := range o.from {
 			f, err := os.Open(name)
@@ -205,13 +228,24 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		for _, n := range plan.Notes {
 			fmt.Fprintf(e.stderr, "tracesift: note: %s\n", n)
 		}
+		source = o.match + " in " + strings.Join(args, ", ")
+		if o.match == "" {
+			source = args[0]
+		}
+		var model *classifier.Model
+		modelSum := ""
+		if !o.noVerdicts {
+			if model, modelSum, err = loadModelSum(o.model); err != nil {
+				return err
+			}
+		}
 		if len(plan.Traces) == 0 {
 			for _, p := range plan.Problems {
 				fmt.Fprintf(e.stderr, "tracesift: %s\n", p)
 			}
 			return fmt.Errorf("no usable trace in the campaign (problems above)")
 		}
-		run, traceOf, err := o.measureRun(e, plan, mo)
+		run, traceOf, err := o.measureRun(e, plan, mo, modelSum)
 		if err != nil {
 			return err
 		}
@@ -224,6 +258,14 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 			rec, err := campaign.Measure(tr.Values, t, mo)
 			if err != nil {
 				return nil, fmt.Errorf("%s: %w", t.Path, err)
+			}
+			if model != nil {
+				v, err := classifier.Screen(model, tr.Values, classifier.ScreenOptions{
+					Interval: intervalSeconds(tr), Features: features.Options{Seed: o.seed}})
+				if err != nil {
+					return nil, fmt.Errorf("%s: verdict: %w", t.Path, err)
+				}
+				rec.Verdict = &campaign.Verdict{Class: v.Class, Classes: v.Classes, Probabilities: v.Probabilities, Model: model.Source}
 			}
 			var b strings.Builder
 			if err := campaign.WriteTableCSV(&b, campaign.Rows(rec, plan.ParamName)); err != nil {
@@ -240,6 +282,7 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		if errors.As(batchErr, &be) {
 			for _, f := range be.failures {
 				leftOut = append(leftOut, "`"+f.Reason+"`")
+				leftOutHTML = append(leftOutHTML, f.Reason)
 			}
 		} else if batchErr != nil {
 			return batchErr
@@ -249,14 +292,14 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		}
 		failed = batchErr
 	}
+	if o.title != "" {
+		source = o.title
+	}
 	campaign.SortRows(rows)
-	for _, out := range []struct {
-		name string
-		fill func(io.Writer) error
-	}{
+	for _, out := range parquetTwins(o.format == formatParquet, []tableOutput{
 		{surveyTracesCSV, func(w io.Writer) error { return campaign.WriteTableCSV(w, rows) }},
 		{surveyTracesJSONL, func(w io.Writer) error { return campaign.WriteTableJSONL(w, rows) }},
-	} {
+	}) {
 		if err := writeOutput(e, filepath.Join(o.out, out.name), out.fill); err != nil {
 			return err
 		}
@@ -299,6 +342,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		{surveyTestsJSONL, func(w io.Writer) error { return campaign.WriteTestsJSONL(w, rep) }},
 		{surveyHistograms, func(w io.Writer) error { return campaign.WriteHistogramsCSV(w, rep) }},
 		{surveySummary, func(w io.Writer) error { return campaign.WriteSummary(w, rep, md) }},
+		{surveyReport, func(w io.Writer) error {
+			return report.WriteCampaign(w, rep, report.CampaignOptions{Source: source, ParamLabel: o.paramLabel, LeftOut: leftOutHTML})
+		}},
 	}
 	for li, lv := range rep.Levels {
 		outs = append(outs, struct {
@@ -306,7 +352,7 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 			fill func(io.Writer) error
 		}{campaign.LevelFile(lv.Level), func(w io.Writer) error { return campaign.WriteLevel(w, rep, li, md) }})
 	}
-	for _, out := range outs {
+	for _, out := range parquetTwins(o.format == formatParquet, outs) {
 		if err := writeOutput(e, filepath.Join(o.out, out.name), out.fill); err != nil {
 			return err
 		}
@@ -324,8 +370,9 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 	if len(rep.Methods) > 0 {
 		perTrace = fmt.Sprintf(" (per-trace tests in %s)", surveyTestsCSV)
 	}
-	fmt.Fprintf(e.stdout, "surveyed %d traces in %d groups at %d %s; %d campaign-level %s significant%s; wrote %s\n",
-		rep.Traces, len(rep.Groups), len(rep.Levels), plural(len(rep.Levels), "level"), sig, plural(sig, "test"), perTrace, filepath.Join(o.out, surveySummary))
+	fmt.Fprintf(e.stdout, "surveyed %d traces in %d groups at %d %s; %d campaign-level %s significant%s; wrote %s and %s\n",
+		rep.Traces, len(rep.Groups), len(rep.Levels), plural(len(rep.Levels), "level"), sig, plural(sig, "test"), perTrace,
+		filepath.Join(o.out, surveyReport), filepath.Join(o.out, surveySummary))
 	return failed
 }
 
@@ -425,12 +472,13 @@ func (s *surveyTableSink) finish() error {
 	return campaign.WriteTableCSV(s.w, s.rows)
 }
 
-// measureRun sets up the journalled measurement of a campaign's traces:
+// measureRun sets up the journalled measurement (and verdicts, keyed by
+// the model's checksum modelSum) of a campaign's traces:
 // one input per trace (named by its ID, described by its campaign row) and
 // one per unusable row (a failure known in advance), the shard's part of
 // them, with the journal in the output directory. traceOf maps an input
 // to its trace in plan.Traces.
-func (o *surveyOptions) measureRun(e *env, plan campaign.Plan, mo campaign.MeasureOptions) (*batchRun, []int, error) {
+func (o *surveyOptions) measureRun(e *env, plan campaign.Plan, mo campaign.MeasureOptions, modelSum string) (*batchRun, []int, error) {
 	sh, err := o.shard.resolve(e)
 	if err != nil {
 		return nil, nil, err
@@ -475,8 +523,9 @@ func (o *surveyOptions) measureRun(e *env, plan campaign.Plan, mo campaign.Measu
 		NoSurrogates bool          `json:"no_surrogates"`
 		Surrogates   int           `json:"surrogates"`
 		Seed         uint64        `json:"seed"`
+		Model        string        `json:"model_sha256"` // "" with --no-verdicts
 		Schema       string        `json:"schema"`
-	}{o.in.traceOptions(), mo.Metrics, methods, mo.NoSurrogates, mo.Surrogates, mo.Seed, features.SchemaHash()}
+	}{o.in.traceOptions(), mo.Metrics, methods, mo.NoSurrogates, mo.Surrogates, mo.Seed, modelSum, features.SchemaHash()}
 	run.key, run.options, run.render = batchKey("survey", options), options, surveyRender{Format: formatCSV}
 	return run, traceOf, nil
 }

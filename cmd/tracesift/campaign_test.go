@@ -78,7 +78,7 @@ func outputs(t *testing.T, dir string) map[string][]byte {
 // (one worker) and once split by device into two runs (all workers) that
 // only write their per-trace tables; the statistics from the concatenated
 // tables (--from) must be the one run's outputs byte for byte — tables,
-// tests, Markdown pages and figures. This also shows that the results do
+// tests, Markdown pages, figures and the HTML report. This also shows that the results do
 // not depend on the number of workers or on how a campaign is split.
 func TestSurveyDemo(t *testing.T) {
 	dir, rows := demoCampaign(t)
@@ -97,7 +97,7 @@ func TestSurveyDemo(t *testing.T) {
 
 	whole := filepath.Join(dir, "whole")
 	procs := runtime.GOMAXPROCS(1)
-	out, errOut, code := runCLI(t, "", append([]string{"survey", filepath.Join(dir, "campaign.csv"), "-o", whole}, surveyFast...)...)
+	out, errOut, code := runCLI(t, "", append([]string{"survey", filepath.Join(dir, "campaign.csv"), "-o", whole, "--title", "demo"}, surveyFast...)...)
 	runtime.GOMAXPROCS(procs)
 	if code != exitOK {
 		t.Fatalf("exit %d: %s", code, errOut)
@@ -123,7 +123,7 @@ func TestSurveyDemo(t *testing.T) {
 		t.Fatal(err)
 	}
 	fromDir := filepath.Join(dir, "from")
-	if _, errOut, code := runCLI(t, "", "survey", "--from", filepath.Join(dir, "merged.csv"), "-o", fromDir); code != exitOK {
+	if _, errOut, code := runCLI(t, "", "survey", "--from", filepath.Join(dir, "merged.csv"), "-o", fromDir, "--title", "demo"); code != exitOK {
 		t.Fatalf("--from: exit %d: %s", code, errOut)
 	}
 
@@ -143,7 +143,7 @@ func TestSurveyDemo(t *testing.T) {
 		t.Fatalf("collate: exit %d: %s", code, errOut)
 	}
 	shardDir := filepath.Join(dir, "fromshards")
-	if _, errOut, code := runCLI(t, "", "survey", "--from", collated, "-o", shardDir); code != exitOK {
+	if _, errOut, code := runCLI(t, "", "survey", "--from", collated, "-o", shardDir, "--title", "demo"); code != exitOK {
 		t.Fatalf("--from the collated shards: exit %d: %s", code, errOut)
 	}
 
@@ -154,7 +154,7 @@ func TestSurveyDemo(t *testing.T) {
 		names = append(names, n)
 	}
 	slices.Sort(names)
-	for _, n := range []string{"traces.csv", "traces.jsonl", "tests.csv", "tests.jsonl", "distributions.csv", "summary.md", "level_0.60.md", "level_0.90.md", "level_1.20.md", "figures/dx_kurt_ex.png"} {
+	for _, n := range []string{"traces.csv", "traces.jsonl", "tests.csv", "tests.jsonl", "distributions.csv", "summary.md", "level_0.60.md", "level_0.90.md", "level_1.20.md", "figures/dx_kurt_ex.png", "report.html"} {
 		if len(a[n]) == 0 {
 			t.Errorf("%s missing or empty; outputs %q", n, names)
 		}
@@ -194,6 +194,18 @@ func TestSurveyDemo(t *testing.T) {
 	// HVG clustering coefficients take few discrete values: binned on them.
 	if !strings.Contains(string(a["distributions.csv"]), "\nhvg_clustering,fresh,0.60,6,true,") {
 		t.Errorf("distributions.csv does not bin the HVG clustering of fresh at 0.60 on its distinct values")
+	}
+	// The report: a verdict per trace from the embedded model, in the
+	// grid and in the table (3 classes each).
+	page := string(a["report.html"])
+	if n := strings.Count(page, `<span class="v" tabindex="0"`); n != 36 {
+		t.Errorf("report.html: %d verdicts in the grid, want 36", n)
+	}
+	if !strings.Contains(page, "embedded default model") || !strings.Contains(page, "<h1>demo</h1>") {
+		t.Error("report.html does not name the model and the title")
+	}
+	if n := strings.Count(string(a["traces.csv"]), "\nverdict,"); n != 36*3 {
+		t.Errorf("%d verdict rows, want %d", n, 36*3)
 	}
 	// 36 traces × 6 metrics (4 increment features and 2 HVG ones) × (1
 	// original + 3 methods) metric rows.

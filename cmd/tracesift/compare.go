@@ -14,10 +14,11 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/tracesift/tracesift/features"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/groups"
 	"github.com/tracesift/tracesift/internal/atomicfile"
 	"github.com/tracesift/tracesift/internal/filelist"
+	"github.com/tracesift/tracesift/networks"
+	"github.com/tracesift/tracesift/networks/visibility"
 )
 
 func init() { addCommand(newCompareCmd) }
@@ -33,6 +34,7 @@ type compareOptions struct {
 	alpha      float64
 	all        bool
 	seed       uint64
+	format     string
 }
 
 func newCompareCmd(e *env) *cobra.Command {
@@ -58,7 +60,9 @@ also summarised per parameter level and group and plotted against it.
 Without -o a Markdown summary goes to stdout. With -o DIR the directory gets
 summary.md, comparison.csv, curves.csv, comparison.json and PNG plots: the
 effect sizes, each core feature against the parameter, and the pooled
-distributions of per-node HVG clustering coefficients and NVG degrees.`,
+distributions of per-node HVG clustering coefficients and NVG degrees.
+--format parquet adds comparison.parquet (and curves.parquet) with the same
+columns and values as the CSV tables.`,
 		Example: `  tracesift compare --group fresh=testdata/demo/fresh --group stressed=testdata/demo/stressed
   tracesift compare --group fresh=testdata/demo/fresh --group stressed=testdata/demo/stressed \
       --param 'Vg([0-9.]+)' --param-label 'gate bias V_G (V)' -o compare-out
@@ -80,6 +84,7 @@ distributions of per-node HVG clustering coefficients and NVG degrees.`,
 	f.Float64Var(&o.alpha, "alpha", 0.05, "significance level for the adjusted p-values")
 	f.BoolVar(&o.all, "all", false, "compare every feature, not only the core ones")
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the randomised estimators")
+	f.StringVar(&o.format, "format", formatCSV, "table format: csv, or parquet to write comparison.parquet (and curves.parquet) beside the CSV tables")
 	return c
 }
 
@@ -159,6 +164,9 @@ func runCompare(e *env, o *compareOptions) error {
 	if err := o.in.validate(); err != nil {
 		return err
 	}
+	if err := checkFormat(o.format, formatCSV, formatParquet); err != nil {
+		return err
+	}
 	adjust, err := groups.ParseAdjustment(o.adjust)
 	if err != nil {
 		return usageError{err}
@@ -202,7 +210,7 @@ func runCompare(e *env, o *compareOptions) error {
 			ct := compareTrace{vec: v}
 			if z, err := features.Standardise(tr.Values); err == nil {
 				if g, err := visibility.Horizontal(z, visibility.Options{}); err == nil {
-					ct.clustering = visibility.LocalClustering(g)
+					ct.clustering = networks.LocalClustering(g)
 				}
 				if g, err := visibility.Natural(z, visibility.Options{}); err == nil {
 					ct.degrees = make([]float64, g.Len())
@@ -303,10 +311,7 @@ func writeCompareDir(o *compareOptions, res groups.Result, failed *batchError) e
 	if label == "" {
 		label = "parameter"
 	}
-	type output struct {
-		name string
-		fill func(io.Writer) error
-	}
+	type output = tableOutput
 	outs := []output{
 		{"summary.md", func(w io.Writer) error {
 			if err := groups.WriteMarkdown(w, res); err != nil {
@@ -336,7 +341,7 @@ func writeCompareDir(o *compareOptions, res groups.Result, failed *batchError) e
 			}},
 		)
 	}
-	for _, out := range outs {
+	for _, out := range parquetTwins(o.format == formatParquet, outs) {
 		if err := atomicfile.Write(filepath.Join(o.out, out.name), out.fill); err != nil {
 			return fmt.Errorf("%s: %w", out.name, err)
 		}

@@ -13,8 +13,8 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/tracesift/tracesift/features"
-	"github.com/tracesift/tracesift/features/visibility"
 	"github.com/tracesift/tracesift/internal/jsonsafe"
+	"github.com/tracesift/tracesift/networks"
 	"github.com/tracesift/tracesift/trace"
 )
 
@@ -54,7 +54,9 @@ slope), ordinal measures and increment statistics. The trace is standardised
 first, so the units of the file do not matter.
 
 Without --all the core features are printed; --all prints the whole vector
-with each feature's family. A feature that cannot be computed for a trace is
+with each feature's family, followed by the extended families (recurrence
+and ordinal partition networks: rn_*, opn_*), which are measured only on
+request and are not read by the classifier. A feature that cannot be computed for a trace is
 shown as missing ("—" in tables, null in JSON, empty in CSV) with the reason.
 Files are processed in parallel; one bad file is reported and skipped.
 Run 'tracesift features --list' for the catalogue with references.
@@ -69,7 +71,7 @@ depend on --window. Memory, measured on Brownian motion read from CSV:
 0.65 GB at the peak for 2^20 samples, 1.1 GB for 10^7 samples in 10
 windows. --window 0 measures any trace whole: 4.1 GB for those 10^7
 samples, whose natural visibility graph then passes --max-edges (the edge
-budget of each visibility graph, about ` + fmt.Sprint(visibility.BytesPerEdge) + ` bytes per edge at the peak), so
+budget of each visibility graph, about ` + fmt.Sprint(networks.BytesPerEdge) + ` bytes per edge at the peak), so
 its features are missing. With one input file, a progress bar on a
 terminal counts feature families per window.
 
@@ -87,6 +89,9 @@ terminal counts feature families per window.
   tracesift features --campaign testdata/demo/campaign.csv --format csv -o f.csv
   tracesift features --files-from list.txt --format csv --resume -o f.csv   # after a kill: only what is left
   tracesift features --files-from list.txt --format csv --shard 2/4 -o f.2.csv   # then: tracesift collate f.*.csv.journal
+  tracesift features --all --format parquet -o features.parquet testdata/demo   # a binary table (needs -o)
+  tracesift features --column current testdata/formats/run.npz      # one array of a NumPy archive
+  tracesift features --column 'TW-W07 D03 stressed/Id' testdata/demo/D03-stressed-1.20V.tdms
   tracesift features --window 100000 long.csv   # windows of 10^5 samples`,
 		RunE: func(c *cobra.Command, args []string) error {
 			list, _ := c.Flags().GetBool("list")
@@ -101,12 +106,12 @@ terminal counts feature families per window.
 	o.src.bind(f)
 	o.shard.bind(f)
 	o.jr.bind(f, "OUTPUT.journal with -o OUTPUT, none on stdout")
-	f.StringVar(&o.format, "format", formatTable, "output format: table, csv or json (JSON Lines, one object per file)")
+	f.StringVar(&o.format, "format", formatTable, "output format: table, csv, json (JSON Lines, one object per file) or parquet (the CSV table's columns and values; needs -o FILE)")
 	f.StringVarP(&o.out, "output", "o", "-", "output file (- for stdout)")
-	f.BoolVar(&o.all, "all", false, "print the whole feature vector, not only the core features")
+	f.BoolVar(&o.all, "all", false, "print the whole feature vector and the extended families (rn_*, opn_*), not only the core features")
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the randomised estimators (sampled path lengths, 0–1 test frequencies)")
 	f.IntVar(&o.window, "window", features.DefaultWindow, fmt.Sprintf("measure traces longer than this many samples in windows of at most this length (at least %d; 0: measure every trace whole)", 2*features.MinLength))
-	f.Int64Var(&o.maxEdges, "max-edges", visibility.DefaultMaxEdges, fmt.Sprintf("edge budget of each visibility graph: its features are missing past this many edges (about %d bytes each at the peak)", visibility.BytesPerEdge))
+	f.Int64Var(&o.maxEdges, "max-edges", networks.DefaultMaxEdges, fmt.Sprintf("edge budget of each visibility graph: its features are missing past this many edges (about %d bytes each at the peak)", networks.BytesPerEdge))
 	f.Bool("list", false, "list the feature catalogue (name, family, meaning, reference) and exit")
 	return c
 }
@@ -173,13 +178,25 @@ type featuresRender struct {
 	All    bool   `json:"all"`
 }
 
-func (fr *featuresRender) formats() []string        { return []string{formatTable, formatCSV, formatJSON} }
-func (fr *featuresRender) setFormat(f string)       { fr.Format = f }
-func (fr *featuresRender) sink(w io.Writer) rawSink { return newFeaturesSink(w, *fr) }
+func (fr *featuresRender) formats() []string {
+	return []string{formatTable, formatCSV, formatJSON, formatParquet}
+}
+func (fr *featuresRender) setFormat(f string) { fr.Format = f }
+
+// sink writes the records in the render's format; Parquet is the CSV
+// table converted as a whole at the end.
+func (fr *featuresRender) sink(w io.Writer) rawSink {
+	if fr.Format == formatParquet {
+		csv := *fr
+		csv.Format = formatCSV
+		return newParquetSink(w, featureKinds, csv.sink)
+	}
+	return newFeaturesSink(w, *fr)
+}
 
 func (fr featuresRender) names() []string {
 	if fr.All {
-		return features.Names()
+		return features.AllNames()
 	}
 	return coreFeatures
 }
@@ -217,8 +234,11 @@ func (s *featuresSink) item(name string, raw json.RawMessage) error {
 func (s *featuresSink) finish() error { return s.w.Flush() }
 
 func runFeatures(e *env, args []string, o *featuresOptions) error {
-	if err := checkFormat(o.format, formatTable, formatCSV, formatJSON); err != nil {
+	if err := checkFormat(o.format, formatTable, formatCSV, formatJSON, formatParquet); err != nil {
 		return err
+	}
+	if o.format == formatParquet && (o.out == "-" || o.out == "") {
+		return usagef("--format parquet writes a binary file: give it with -o FILE")
 	}
 	if err := o.in.validate(); err != nil {
 		return err
@@ -237,7 +257,7 @@ func runFeatures(e *env, args []string, o *featuresOptions) error {
 	if err != nil {
 		return err
 	}
-	fopts := features.Options{Seed: o.seed, Window: window, MaxEdges: o.maxEdges}
+	fopts := features.Options{Seed: o.seed, Window: window, MaxEdges: o.maxEdges, Extended: o.all}
 	if len(run.inputs) == 1 {
 		// Within one trace, a bar counting feature families per window
 		// (a batch of files has its own bar, per file).
@@ -255,8 +275,9 @@ func runFeatures(e *env, args []string, o *featuresOptions) error {
 		Seed     uint64        `json:"seed"`
 		Window   int           `json:"window"`
 		MaxEdges int64         `json:"max_edges"`
+		Extended bool          `json:"extended"`
 		Schema   string        `json:"schema"`
-	}{o.in.traceOptions(), o.seed, window, o.maxEdges, features.SchemaHash()}
+	}{o.in.traceOptions(), o.seed, window, o.maxEdges, o.all, features.SchemaHash()}
 	render := &featuresRender{Format: o.format, All: o.all}
 	run.key, run.options, run.render = batchKey("features", options), options, render
 	return run.run(e, o.out,
@@ -345,7 +366,7 @@ func featuresJSON(name string, r *featuresRecord, names []string) featuresLine {
 // featureReason is why feature i of v is missing ("" when present), with a
 // visibility graph past its edge budget explained in terms of the flags.
 func featureReason(v features.Vector, i int) string {
-	var eb *visibility.EdgeBudgetError
+	var eb *networks.EdgeBudgetError
 	if v.Reasons[i] == "" || !errors.As(v.Causes[i], &eb) {
 		return v.Reasons[i]
 	}
@@ -446,9 +467,13 @@ func writeCatalogue(e *env) error {
 	for _, en := range features.Catalogue() {
 		t.row(en.Name, string(en.Family), en.Description, en.Reference)
 	}
+	for _, en := range features.Extended() {
+		t.row(en.Name, string(en.Family)+" (extended)", en.Description, en.Reference)
+	}
 	if err := t.flush(); err != nil {
 		return err
 	}
-	fmt.Fprintf(e.stdout, "\nschema v%d, hash %s, %d features\n", features.SchemaVersion, features.SchemaHash(), len(features.Catalogue()))
+	fmt.Fprintf(e.stdout, "\nschema v%d, hash %s, %d features; %d more in extended families (measured with --all or by name, not read by the classifier)\n",
+		features.SchemaVersion, features.SchemaHash(), len(features.Catalogue()), len(features.Extended()))
 	return nil
 }

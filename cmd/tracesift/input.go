@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"runtime"
+	"slices"
 	"strings"
 	"sync"
 
@@ -28,8 +29,8 @@ type inputOptions struct {
 // analysis can use (features.MinLength for commands that measure features).
 func (o *inputOptions) bind(f *pflag.FlagSet, floor int) {
 	o.floor = max(1, floor)
-	f.StringVar(&o.column, "column", "", "value column by header name or 1-based index (default: the single value column, or the first non-time column)")
-	f.StringVar(&o.format, "input-format", "auto", "input format: auto (delimited text, optionally gzip), f32le or f64le (raw little-endian samples)")
+	f.StringVar(&o.column, "column", "", "value column by header name or 1-based index (default: the single value column, or the first non-time column); NPY: column number of a 2-D array; NPZ: array name, or NAME/N for column N; TDMS: GROUP/CHANNEL, CHANNEL or index; WAV: channel number")
+	f.StringVar(&o.format, "input-format", "auto", "input format: auto (NPY, NPZ, TDMS and WAV by their magic bytes, else delimited text; gzip recognised), csv, f32le or f64le (raw little-endian samples), npy, npz, tdms, wav")
 	f.StringVar(&o.nan, "nan", "reject", "non-finite or missing samples: reject, drop, or interpolate (linear)")
 	f.IntVar(&o.minLength, "min-length", trace.DefaultMinLength, "reject traces shorter than this many samples")
 }
@@ -46,10 +47,8 @@ func (o *inputOptions) traceOptions() trace.Options {
 // validate rejects flag values the reader would refuse for every file, so a
 // usage error is reported once instead of once per file.
 func (o *inputOptions) validate() error {
-	switch trace.Format(o.format) {
-	case trace.FormatAuto, "", trace.FormatCSV, "text", "txt", trace.FormatF32LE, trace.FormatF64LE:
-	default:
-		return usagef("--input-format %q: want auto, f32le or f64le", o.format)
+	if !slices.Contains(trace.Formats, trace.Format(o.format)) && o.format != "" && o.format != "text" && o.format != "txt" {
+		return usagef("--input-format %q: want one of %s", o.format, formatList())
 	}
 	switch trace.NaNPolicy(o.nan) {
 	case trace.NaNReject, trace.NaNDrop, trace.NaNInterpolate, "":
@@ -63,6 +62,15 @@ func (o *inputOptions) validate() error {
 		return usagef("--min-length %d: this command's estimators need at least %d samples per trace", o.minLength, o.floor)
 	}
 	return nil
+}
+
+// formatList is trace.Formats for a usage message.
+func formatList() string {
+	names := make([]string, len(trace.Formats))
+	for i, f := range trace.Formats {
+		names[i] = string(f)
+	}
+	return strings.Join(names, ", ")
 }
 
 // batchFailure is one input a batch could not process.

@@ -52,10 +52,14 @@ spurious high frequencies: --end-match tests the longest sub-series whose
 ends match instead, and the report says what was cut.
 
 Statistics are feature names ('tracesift features --list'), e.g. nl_trev_1,
-nl_fc_rho_1, nl_fc_drop_10, op_ent_d4, hv_tail_exprate, nl_div_rate.`,
+nl_fc_rho_1, nl_fc_drop_10, op_ent_d4, hv_tail_exprate, nl_div_rate, and the
+network features of the extended families: recurrence networks (rn_tdim,
+rn_trans, rn_path_mean, ...; about 0.3 s per series at 4096 samples) and
+ordinal partition networks (opn_tent, opn_forb_frac, opn_self, ...).`,
 		Example: `  tracesift surrogate testdata/demo/stressed/D01_stressed_Vg1.20.csv --method iaaft --count 99 --stat nl_trev_1 --stat nl_fc_drop_10
   tracesift generate henon --n 2000 | tracesift surrogate - --stat nl_trev_1 --format json
-  tracesift surrogate trace.csv --stat hv_tail_exprate --plot hv_tail_exprate.png --end-match`,
+  tracesift surrogate trace.csv --stat hv_tail_exprate --plot hv_tail_exprate.png --end-match
+  tracesift surrogate testdata/demo/stressed/D04_stressed_Vg1.20.csv.gz --stat opn_tent --stat rn_tdim --count 39`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(c *cobra.Command, args []string) error {
 			return runSurrogate(e, args[0], &o)
@@ -108,7 +112,7 @@ func runSurrogate(e *env, file string, o *surrogateOptions) error {
 	for _, name := range o.stats {
 		name = strings.TrimSpace(name)
 		if _, ok := features.Lookup(name); !ok {
-			return usagef("--stat %q: unknown feature; valid: %s", name, strings.Join(features.Names(), ", "))
+			return usagef("--stat %q: unknown feature; valid: %s", name, strings.Join(features.AllNames(), ", "))
 		}
 		if seen[name] {
 			continue

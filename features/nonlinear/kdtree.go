@@ -259,19 +259,23 @@ func (t *kdTree) nn(n int32, s *nnSearch) {
 	}
 }
 
-// knnSearch holds the state of one k-nearest query (Euclidean).
+// knnSearch holds the state of one k-nearest query: Euclidean (squared
+// distances) or maximum norm, excluding the original indices j with
+// |j − qi| ≤ w (w < 0 excludes none).
 type knnSearch struct {
-	q     []float64
-	k     int
-	ids   []int     // sorted by distance, ascending
-	dists []float64 // squared distances
+	q      []float64
+	qi, w  int
+	k      int
+	euclid bool
+	ids    []int     // sorted by distance, ascending
+	dists  []float64 // squared for Euclidean
 }
 
 // kNearest fills ids and dists (length k, ascending Euclidean distance) with
 // the k points nearest to q; it returns how many were found (< k only when
 // the tree holds fewer than k points).
 func (t *kdTree) kNearest(q []float64, ids []int, dists []float64) int {
-	s := knnSearch{q: q, k: len(ids), ids: ids[:0], dists: dists[:0]}
+	s := knnSearch{q: q, w: -1, k: len(ids), euclid: true, ids: ids[:0], dists: dists[:0]}
 	t.knn(0, &s)
 	for i := range s.dists {
 		s.dists[i] = math.Sqrt(s.dists[i])
@@ -284,6 +288,10 @@ func (t *kdTree) knn(n int32, s *knnSearch) {
 	if node.left < 0 {
 		d := t.dim
 		for k := int(node.start); k < int(node.end); k++ {
+			id := int(t.ids[k])
+			if dj := id - s.qi; dj <= s.w && dj >= -s.w {
+				continue
+			}
 			p := t.data[k*d : k*d+d]
 			full := len(s.ids) == s.k
 			lim := math.Inf(1)
@@ -293,7 +301,11 @@ func (t *kdTree) knn(n int32, s *knnSearch) {
 			var dist float64
 			for c, v := range s.q {
 				g := p[c] - v
-				dist += g * g
+				if s.euclid {
+					dist += g * g
+				} else {
+					dist = max(dist, math.Abs(g))
+				}
 				if dist >= lim {
 					break
 				}
@@ -313,12 +325,12 @@ func (t *kdTree) knn(n int32, s *knnSearch) {
 				s.ids[pos], s.dists[pos] = s.ids[pos-1], s.dists[pos-1]
 				pos--
 			}
-			s.ids[pos], s.dists[pos] = int(t.ids[k]), dist
+			s.ids[pos], s.dists[pos] = id, dist
 		}
 		return
 	}
-	bl := t.boxLower(node.left, s.q, true)
-	br := t.boxLower(node.right, s.q, true)
+	bl := t.boxLower(node.left, s.q, s.euclid)
+	br := t.boxLower(node.right, s.q, s.euclid)
 	first, second, b2 := node.left, node.right, br
 	if br < bl {
 		first, second, b2 = node.right, node.left, bl

@@ -3,6 +3,7 @@ package ordinal
 import (
 	"errors"
 	"math"
+	"math/rand/v2"
 	"slices"
 	"testing"
 )
@@ -383,4 +384,36 @@ func FuzzPatterns(f *testing.F) {
 			t.Fatalf("H = %g, C = %g (max %g)", e, c.Complexity, c.MaxComplexity)
 		}
 	})
+}
+
+// TestCodesMatchPatterns: the histogram of Codes is Patterns' Counts, under
+// both tie rules (the two walk the same windows with the same encoding).
+func TestCodesMatchPatterns(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 5))
+	for _, ties := range []Ties{TiesStable, TiesSkip} {
+		for d := MinOrder; d <= 7; d++ {
+			x := make([]float64, 3000)
+			for i := range x {
+				x[i] = float64(rng.IntN(9))
+			}
+			o := Options{Order: d, Delay: 1 + rng.IntN(3), Ties: ties}
+			dist, err := Patterns(x, o)
+			if err != nil {
+				t.Fatal(err)
+			}
+			codes, err := Codes(x, o)
+			if err != nil {
+				t.Fatal(err)
+			}
+			counts := make([]int, len(dist.Counts))
+			for _, c := range codes {
+				if c >= 0 {
+					counts[c]++
+				}
+			}
+			if !slices.Equal(counts, dist.Counts) {
+				t.Fatalf("d %d ties %v: Codes histogram differs from Patterns", d, ties)
+			}
+		}
+	}
 }

@@ -34,7 +34,8 @@ func Write(dir string) error {
 }
 
 // build returns the relative names and contents of every file Write
-// creates, in campaign order, then LabelsFile, CampaignFile and ReadmeFile.
+// creates, in campaign order, then LabelsFile, CampaignFile, ReadmeFile
+// and the NumPy and TDMS copies of two traces (NativeFiles).
 func build() ([]string, [][]byte, error) {
 	specs := Campaign()
 	names := make([]string, 0, len(specs)+2)
@@ -56,7 +57,11 @@ func build() ([]string, [][]byte, error) {
 	}
 	names = append(names, LabelsFile, CampaignFile, ReadmeFile)
 	data = append(data, Labels(specs), CampaignTable(specs), readme)
-	return names, data, nil
+	nn, nd, err := native()
+	if err != nil {
+		return nil, nil, err
+	}
+	return append(names, nn...), append(data, nd...), nil
 }
 
 func writeFile(dir, rel string, data []byte) error {

@@ -49,8 +49,8 @@ type Entry struct {
 var ErrBadPattern = errors.New("bad pattern")
 
 // Collector accumulates entries. Its zero value takes every file of a
-// walked directory except hidden files (and directories) and Markdown
-// files, which archives keep beside their traces.
+// walked directory except hidden files (and directories), Markdown files,
+// which archives keep beside their traces, and batch journals (.journal).
 type Collector struct {
 	// Include, when not empty, keeps only the files of walked
 	// directories whose base name matches one of these globs (path.Match
@@ -107,7 +107,7 @@ func (c *Collector) walk(dir, origin string) {
 			}
 			return nil
 		}
-		if d.IsDir() || strings.EqualFold(filepath.Ext(name), ".md") || !c.included(name) {
+		if d.IsDir() || skipped(name) || !c.included(name) {
 			return nil
 		}
 		if !d.Type().IsRegular() {
@@ -119,6 +119,14 @@ func (c *Collector) walk(dir, origin string) {
 		c.put(Entry{Name: p})
 		return nil
 	})
+}
+
+// skipped names the files a walk never takes: Markdown (archives keep
+// notes beside their traces) and batch journals (FILE.journal, written
+// beside an output that may sit in the walked tree).
+func skipped(base string) bool {
+	ext := filepath.Ext(base)
+	return strings.EqualFold(ext, ".md") || ext == ".journal"
 }
 
 func (c *Collector) included(base string) bool {

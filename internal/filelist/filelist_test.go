@@ -31,12 +31,12 @@ func names(es []Entry) []string {
 }
 
 // A tree walked recursively gives its files sorted, without hidden files,
-// hidden directories and Markdown; --include filters walked files by base
+// hidden directories, Markdown and journals; --include filters walked files by base
 // name but never a file named directly; a symbolic link to a file is
 // taken, one to a directory is not followed.
 func TestWalk(t *testing.T) {
 	dir := t.TempDir()
-	for _, p := range []string{"b/2.csv", "a/1.csv", "a/deep/3.csv.gz", "a/notes.md", ".hidden.csv", ".git/x.csv", "a/.h/4.csv", "c/5.txt"} {
+	for _, p := range []string{"b/2.csv", "a/1.csv", "a/deep/3.csv.gz", "a/notes.md", ".hidden.csv", ".git/x.csv", "a/.h/4.csv", "c/5.txt", "c/out.csv.journal"} {
 		touch(t, filepath.Join(dir, p))
 	}
 	if err := os.Symlink(filepath.Join(dir, "b", "2.csv"), filepath.Join(dir, "c", "link.csv")); err != nil {

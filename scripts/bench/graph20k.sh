@@ -53,5 +53,5 @@ for sys in white brownian; do
 	fi
 done
 
-go test ./features/visibility -run '^$' -bench 'SweepNatural20k|Natural20k|Graph20k' \
+go test ./networks/visibility -run '^$' -bench 'SweepNatural20k|Natural20k|Graph20k' \
 	-benchtime 5x -count "$runs" -cpu 1

@@ -29,7 +29,7 @@ edge count and metrics.clustering_mean with the values above, printing
 "check: MATCH" or "check: DIFFER" (exit status 1). Both compute the mean of
 the local coefficients 2T_i/(k_i(k_i - 1)) (0 for k_i < 2) summed in node
 order, so on the same graph the two numbers are equal to the last bit.
-features/visibility/compare_test.go holds the values this script printed
+networks/visibility/compare_test.go holds the values this script printed
 for `tracesift generate white|brownian --n 20000 --seed 1` and checks them.
 """
 
