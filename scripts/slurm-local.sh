@@ -1,6 +1,6 @@
 #!/bin/sh
 # A one-node Slurm cluster on localhost, for the job-array integration test
-# (cmd/tracesift/slurm_test.go) and for trying the job-array example
+# (integration/slurm/slurm_test.go) and for trying the job-array example
 # (examples/slurm/) by hand. Debian 12 packages slurm-wlm (22.05) and
 # munge; run as root, no systemd needed.
 #

@@ -452,11 +452,11 @@ func TestBatchProgressLines(t *testing.T) {
 // resumes to the uninterrupted output.
 func TestKilledRunResumes(t *testing.T) {
 	if testing.Short() {
-		t.Skip("runs a batch of 16 traces three times (about 20 s)")
+		t.Skip("runs a batch of 40 traces three times")
 	}
 	dir := t.TempDir()
 	var paths []string
-	for i := range 16 {
+	for i := range 40 {
 		paths = append(paths, writeSeries(t, dir, fmt.Sprintf("t%02d.csv", i), "ar1", "--n", "6000", "--seed", fmt.Sprint(i+1)))
 	}
 	list := writeList(t, filepath.Join(dir, "list.txt"), paths)
