@@ -30,7 +30,8 @@ func PlotCurve(w io.Writer, r Result, feature string, opts PlotOptions) error {
 
 // PlotCurveGrid writes one PNG with a panel per feature (features nil
 // means all, in order) as PlotCurve draws them, opts.Columns panels per
-// row; the legend is drawn in the first panel only. The image is
+// row; the legend is drawn once, in the first panel where every group has
+// a value (else the first panel). The image is
 // opts.Width × opts.Height, by default 4 × 3 inches per panel.
 func PlotCurveGrid(w io.Writer, r Result, features []string, opts PlotOptions) error {
 	if features == nil {
@@ -48,10 +49,17 @@ func PlotCurveGrid(w io.Writer, r Result, features []string, opts PlotOptions) e
 	for i := range grid {
 		grid[i] = make([]*plot.Plot, cols)
 	}
+	legendAt := 0
+	for k, f := range features {
+		if groupsWithValues(r, f) == len(r.Groups) {
+			legendAt = k
+			break
+		}
+	}
 	for k, f := range features {
 		o := opts
 		o.Title = f
-		p, err := curvePlot(r, f, o, k == 0)
+		p, err := curvePlot(r, f, o, k == legendAt)
 		if err != nil {
 			return err
 		}
@@ -83,6 +91,26 @@ func PlotCurveGrid(w io.Writer, r Result, features []string, opts PlotOptions) e
 		return fmt.Errorf("plot grid: write: %w", err)
 	}
 	return nil
+}
+
+// groupsWithValues counts the groups with at least one finite median of
+// feature at some level (0 for an unknown feature).
+func groupsWithValues(r Result, feature string) int {
+	f := r.FeatureIndex(feature)
+	ng := len(r.Groups)
+	if f < 0 || len(r.Curves) < (f+1)*ng {
+		return 0
+	}
+	n := 0
+	for _, c := range r.Curves[f*ng : (f+1)*ng] {
+		for _, l := range c.Levels {
+			if l.N > 0 && !math.IsNaN(l.Median) {
+				n++
+				break
+			}
+		}
+	}
+	return n
 }
 
 // curvePlot builds the feature-versus-parameter plot.
