@@ -12,6 +12,7 @@ import (
 
 	"github.com/tracesift/tracesift/classifier"
 	"github.com/tracesift/tracesift/features"
+	"github.com/tracesift/tracesift/internal/journal"
 	"github.com/tracesift/tracesift/models"
 )
 
@@ -26,6 +27,7 @@ func TestBadInputCatalogue(t *testing.T) {
 	t.Run("models", testBadModels)
 	t.Run("output in a missing directory", testOutputInMissingDirectory)
 	t.Run("mixed batch", testMixedBatch)
+	t.Run("batch sources, shards and journals", testBatchMisuse)
 }
 
 // catalogueInput is one input of the catalogue. make writes it under dir and
@@ -188,11 +190,15 @@ func catalogueCommands(goodDir, goodA, goodB string) []catalogueCommand {
 		{"classify", func(dir, in string) ([]string, []string) {
 			out := filepath.Join(dir, "verdicts.txt")
 			return []string{"classify", "-o", out, in}, []string{out}
-		}, 1, nil},
+		}, 1, map[string]special{
+			"directory": {"adir.csv holds no trace files", 0}, // walked: an empty directory
+		}},
 		{"features", func(dir, in string) ([]string, []string) {
 			out := filepath.Join(dir, "features.csv")
 			return []string{"features", "--format", "csv", "-o", out, in}, []string{out}
-		}, 1, nil},
+		}, 1, map[string]special{
+			"directory": {"adir.csv holds no trace files", 0},
+		}},
 		{"graph", func(dir, in string) ([]string, []string) {
 			out := filepath.Join(dir, "edges.csv")
 			return []string{"graph", "--kind", "hvg", "--no-paths", "--edges", out, in}, []string{out}
@@ -394,6 +400,15 @@ func testMixedBatch(t *testing.T) {
 		if !c.good(string(got)) || strings.Contains(string(got), "nonnum") || strings.Contains(string(got), "previous run") {
 			t.Errorf("%v: output file holds %q", c.cmd, got)
 		}
+		// The journal holds the failure as one record: file, line, reason.
+		ix, err := journal.Open(out + ".journal")
+		if err != nil {
+			t.Fatal(err)
+		}
+		if en, ok := ix.Lookup(bad); !ok || en.Failure == nil || en.Failure.Line != 3 || !strings.Contains(en.Failure.Reason, "nonnum.csv line 3, column 2") || ix.Len() != 3 {
+			t.Errorf("%v: journal record of the bad file %+v (%d records)", c.cmd, en, ix.Len())
+		}
+		ix.Close()
 		want := []string{"nonnum.csv line 3", "1 of 3 inputs failed", "wrote the results of 2 of 3 inputs to " + out}
 		lines := strings.Split(strings.TrimSpace(stderr), "\n")
 		if len(lines) != len(want) {
@@ -421,5 +436,55 @@ func testMixedBatch(t *testing.T) {
 	if got, _ := os.ReadFile(out); code != exitPartial || string(got) != "previous run\n" ||
 		!strings.Contains(stderr, out+" not written: no input could be processed; the existing file was left unchanged") {
 		t.Errorf("all failed: exit %d, file %q, stderr %q", code, got, stderr)
+	}
+}
+
+// Misused batch sources, shards and journals: each is one line naming the
+// problem, exit 2 for a usage error and 1 otherwise, and no output file.
+func testBatchMisuse(t *testing.T) {
+	dir := t.TempDir()
+	good := writeSeries(t, dir, "w.csv", "white", "--n", "600")
+	nofile := fixture(t, dir, "nofile.csv", []byte("path,group\nw.csv,a\n"))
+	other := filepath.Join(dir, "v.txt")
+	if _, stderr, code := runCLI(t, "", "classify", "-o", other, good); code != exitOK {
+		t.Fatalf("classify: %s", stderr)
+	}
+	feat := filepath.Join(dir, "f.csv")
+	if _, stderr, code := runCLI(t, "", "features", "-o", feat, good); code != exitOK {
+		t.Fatalf("features: %s", stderr)
+	}
+	held := filepath.Join(dir, "held.csv")
+	w, err := journal.Create(held + ".journal")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer w.Close()
+	out := filepath.Join(dir, "out.csv")
+	for _, c := range []struct {
+		args []string
+		code int
+		want string
+	}{
+		{[]string{"features", "--include", "[", dir}, exitUsage, "--include: bad pattern \"[\""},
+		{[]string{"features", "--files-from", filepath.Join(dir, "nolist.txt")}, exitPartial, "--files-from: open " + filepath.Join(dir, "nolist.txt")},
+		{[]string{"features", "--campaign", nofile}, exitUsage, "no file column (columns path, group)"},
+		{[]string{"features", "--files-from", "-", "-"}, exitUsage, "stdin cannot be both"},
+		{[]string{"features", "--resume", good}, exitUsage, "--resume needs a journal"},
+		{[]string{"features", "--no-journal", "--resume", "-o", out, good}, exitUsage, "--no-journal contradicts"},
+		{[]string{"features", "--shard", "2/2", good}, exitUsage, "--shard \"2/2\""},
+		{[]string{"features", "-o", held, good}, exitPartial, "in use by another run"},
+		{[]string{"features", "--resume", "-o", out, "--journal", other + ".journal", good}, exitUsage, "holds a classify run, not features"},
+		{[]string{"collate", "-o", out, feat + ".journal", other + ".journal"}, exitPartial, "holds a classify run"},
+		{[]string{"collate", "-o", out, good}, exitPartial, "not a tracesift journal"},
+		{[]string{"collate", "-o", out, feat, feat + ".journal"}, exitUsage, "given twice"},
+		{[]string{"survey", "--shard", "0/2", "-o", filepath.Join(dir, "s"), filepath.Join("..", "..", "testdata", "demo", "campaign.csv")}, exitUsage, "add --tables-only"},
+	} {
+		what := strings.Join(c.args, " ")
+		_, stderr, code := runCLI(t, "", c.args...)
+		if code != c.code {
+			t.Errorf("%s: exit %d, want %d", what, code, c.code)
+		}
+		checkStderr(t, what, stderr, c.want, 1)
+		checkOutputs(t, what, []string{out, held}, false)
 	}
 }

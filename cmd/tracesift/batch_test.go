@@ -167,7 +167,8 @@ func TestTrainOnDemoLabelsAlone(t *testing.T) {
 }
 
 // Batches draw a progress bar on a terminal (here a buffer standing in for
-// one) and none otherwise.
+// one) with the count and the rate, and none on a buffer that is neither a
+// terminal nor a file.
 func TestBatchProgress(t *testing.T) {
 	dir := t.TempDir()
 	a := writeSeries(t, dir, "a.csv", "white", "--n", "600", "--seed", "1")
@@ -175,7 +176,7 @@ func TestBatchProgress(t *testing.T) {
 	for _, cmd := range []string{"features", "classify"} {
 		var out, errb bytes.Buffer
 		code := runEnv(&env{stdin: strings.NewReader(""), stdout: &out, stderr: &errb, terminal: true}, []string{cmd, a, b})
-		if code != exitOK || !strings.Contains(errb.String(), "traces") || !strings.Contains(errb.String(), "/2)") {
+		if code != exitOK || !strings.Contains(errb.String(), "traces") || !strings.Contains(errb.String(), "/2, ") || !strings.Contains(errb.String(), "traces/") {
 			t.Errorf("%s on a terminal: exit %d, stderr %q", cmd, code, errb.String())
 		}
 		if _, stderr, _ := runCLI(t, "", cmd, a, b); stderr != "" {
@@ -211,7 +212,7 @@ func TestGraphProgress(t *testing.T) {
 	if code := runEnv(&env{stdin: strings.NewReader(""), stdout: &out, stderr: &errb, terminal: true}, []string{"graph", "--kind", "hvg", w}); code != exitOK {
 		t.Fatalf("exit %d: %s", code, errb.String())
 	}
-	if !strings.Contains(errb.String(), "graph") || !strings.Contains(errb.String(), "/2)") {
+	if !strings.Contains(errb.String(), "graph") || !strings.Contains(errb.String(), "/2, ") {
 		t.Errorf("stderr %q", errb.String())
 	}
 }

@@ -1,12 +1,14 @@
 package main
 
 import (
+	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -16,13 +18,17 @@ import (
 	"github.com/tracesift/tracesift/features"
 	"github.com/tracesift/tracesift/features/surrogate"
 	"github.com/tracesift/tracesift/groups"
+	"github.com/tracesift/tracesift/internal/filelist"
 	"github.com/tracesift/tracesift/report"
+	"github.com/tracesift/tracesift/trace"
 )
 
 func init() { addCommand(newSurveyCmd) }
 
 type surveyOptions struct {
 	in         inputOptions
+	shard      shardOptions
+	resume     bool
 	out        string
 	match      string
 	from       []string
@@ -53,6 +59,7 @@ const (
 	surveyReport      = "report.html"
 	surveyHistograms  = "distributions.csv"
 	surveyFigures     = "figures"
+	surveyJournal     = "traces.journal"
 )
 
 func newSurveyCmd(e *env) *cobra.Command {
@@ -113,11 +120,23 @@ per-trace tables: run parts of a campaign on several machines, concatenate
 their traces.csv and give them to --from for the statistics and the report,
 which are then exactly those of one run.
 
+Every trace's rows are appended to DIR/traces.journal the moment the trace
+is measured (a failure as its file, line and reason); --resume skips the
+traces the journal holds with the same file checksum, campaign row and
+options. With --tables-only, --shard K/N measures the traces whose path
+(as the description writes it) hashes to shard K of N (inside a Slurm job array or a Kubernetes
+indexed Job the shard comes from the scheduler; see 'tracesift features
+--help'); 'tracesift collate DIR0 DIR1 ...' joins the shards' journals into
+the traces.csv of one run, naming missing and duplicated traces, for
+--from.
+
 ` + caution,
 		Example: `  tracesift survey testdata/demo/campaign.csv -o survey-out
   tracesift survey --match '(?P<device>D\d+)_(?P<group>fresh|stressed)_Vg(?P<bias_V>[0-9.]+)' testdata/demo -o survey-out
   tracesift survey part1.csv --tables-only -o part1 && tracesift survey part2.csv --tables-only -o part2
-  tracesift survey --from part1/traces.csv --from part2/traces.csv -o merged`,
+  tracesift survey --from part1/traces.csv --from part2/traces.csv -o merged
+  tracesift survey testdata/demo/campaign.csv --tables-only --shard 1/4 -o shard1   # shards 0/4 … 3/4
+  tracesift collate shard0 shard1 shard2 shard3 -o traces.csv && tracesift survey --from traces.csv -o merged`,
 		RunE: func(c *cobra.Command, args []string) error {
 			return runSurvey(e, &o, args)
 		},
@@ -144,6 +163,8 @@ which are then exactly those of one run.
 	f.BoolVar(&o.noVerdicts, "no-verdicts", false, "do not classify the traces (no verdict grid)")
 	f.StringVar(&o.title, "title", "", "the campaign's name in report.html (default: the campaign description, the --match pattern, or the --from tables)")
 	f.StringVar(&o.format, "format", formatCSV, "table format: csv, or parquet to write a .parquet copy beside every CSV table (traces, tests, distributions)")
+	o.shard.bind(f)
+	f.BoolVar(&o.resume, "resume", false, "skip the traces DIR/"+surveyJournal+" already holds with the same content checksum, campaign row, options and model")
 	return c
 }
 
@@ -207,66 +228,69 @@ func runSurvey(e *env, o *surveyOptions, args []string) error {
 		for _, n := range plan.Notes {
 			fmt.Fprintf(e.stderr, "tracesift: note: %s\n", n)
 		}
-		for _, p := range plan.Problems {
-			fmt.Fprintf(e.stderr, "tracesift: %s\n", p)
-			leftOut = append(leftOut, "`"+p.String()+"`")
-			leftOutHTML = append(leftOutHTML, p.String())
-		}
 		source = o.match + " in " + strings.Join(args, ", ")
 		if o.match == "" {
 			source = args[0]
 		}
 		var model *classifier.Model
+		modelSum := ""
 		if !o.noVerdicts {
-			if model, err = loadModel(o.model); err != nil {
+			if model, modelSum, err = loadModelSum(o.model); err != nil {
 				return err
 			}
 		}
 		if len(plan.Traces) == 0 {
+			for _, p := range plan.Problems {
+				fmt.Fprintf(e.stderr, "tracesift: %s\n", p)
+			}
 			return fmt.Errorf("no usable trace in the campaign (problems above)")
 		}
-		names := make([]string, len(plan.Traces))
-		for i, t := range plan.Traces {
-			names[i] = t.Path
+		run, traceOf, err := o.measureRun(e, plan, mo, modelSum)
+		if err != nil {
+			return err
 		}
-		batchErr := batch(e, "traces", names,
-			func(i int, name string) (campaign.Record, error) {
-				tr, err := readTrace(e, name, &o.in)
+		if err := run.compute(e, func(e *env, i int) (any, error) {
+			t := plan.Traces[traceOf[i]]
+			tr, err := readTrace(e, t.Path, &o.in)
+			if err != nil {
+				return nil, err
+			}
+			rec, err := campaign.Measure(tr.Values, t, mo)
+			if err != nil {
+				return nil, fmt.Errorf("%s: %w", t.Path, err)
+			}
+			if model != nil {
+				v, err := classifier.Screen(model, tr.Values, classifier.ScreenOptions{
+					Interval: intervalSeconds(tr), Features: features.Options{Seed: o.seed}})
 				if err != nil {
-					return campaign.Record{}, err
+					return nil, fmt.Errorf("%s: verdict: %w", t.Path, err)
 				}
-				rec, err := campaign.Measure(tr.Values, plan.Traces[i], mo)
-				if err != nil {
-					return campaign.Record{}, fmt.Errorf("%s: %w", name, err)
-				}
-				if model != nil {
-					v, err := classifier.Screen(model, tr.Values, classifier.ScreenOptions{
-						Interval: intervalSeconds(tr), Features: features.Options{Seed: o.seed}})
-					if err != nil {
-						return campaign.Record{}, fmt.Errorf("%s: verdict: %w", name, err)
-					}
-					rec.Verdict = &campaign.Verdict{Class: v.Class, Classes: v.Classes, Probabilities: v.Probabilities, Model: model.Source}
-				}
-				return rec, nil
-			},
-			func(_ int, _ string, rec campaign.Record) error {
-				rows = append(rows, campaign.Rows(rec, plan.ParamName)...)
-				return nil
-			})
+				rec.Verdict = &campaign.Verdict{Class: v.Class, Classes: v.Classes, Probabilities: v.Probabilities, Model: model.Source}
+			}
+			var b strings.Builder
+			if err := campaign.WriteTableCSV(&b, campaign.Rows(rec, plan.ParamName)); err != nil {
+				return nil, err
+			}
+			return surveyRecord{Rows: b.String()}, nil
+		}); err != nil {
+			return err
+		}
+		sink := &surveyRows{}
+		batchErr := run.assemble(e, sink)
+		rows = sink.rows
 		var be *batchError
 		if errors.As(batchErr, &be) {
 			for _, f := range be.failures {
 				leftOut = append(leftOut, "`"+f.Reason+"`")
 				leftOutHTML = append(leftOutHTML, f.Reason)
 			}
+		} else if batchErr != nil {
+			return batchErr
 		}
-		if len(rows) == 0 {
+		if len(rows) == 0 && len(run.inputs) > 0 {
 			return fmt.Errorf("no trace could be measured (errors above)")
 		}
 		failed = batchErr
-		if failed == nil && len(plan.Problems) > 0 {
-			failed = errSomeFailed
-		}
 	}
 	if o.title != "" {
 		source = o.title
@@ -403,4 +427,117 @@ func (o *surveyOptions) plan(args []string) (campaign.Plan, error) {
 		return plan, usageError{err}
 	}
 	return plan, err
+}
+
+// surveyRecord is one trace's rows of the per-trace table as the journal
+// keeps them: the CSV that WriteTableCSV writes (full precision, read back
+// exactly by ReadTableCSV).
+type surveyRecord struct {
+	Rows string `json:"rows_csv"`
+}
+
+// surveyRows collects the rows of survey records.
+type surveyRows struct {
+	rows []campaign.Row
+}
+
+func (s *surveyRows) item(name string, raw json.RawMessage) error {
+	var r surveyRecord
+	if err := json.Unmarshal(raw, &r); err != nil {
+		return fmt.Errorf("%s: damaged record: %w", name, err)
+	}
+	rows, err := campaign.ReadTableCSV(strings.NewReader(r.Rows), name)
+	if err != nil {
+		return err
+	}
+	s.rows = append(s.rows, rows...)
+	return nil
+}
+
+func (s *surveyRows) finish() error { return nil }
+
+// surveyTableSink writes collected survey rows as the per-trace table
+// (collate): sorted as one run sorts them, CSV or JSON Lines.
+type surveyTableSink struct {
+	surveyRows
+	w      io.Writer
+	format string
+}
+
+func (s *surveyTableSink) finish() error {
+	campaign.SortRows(s.rows)
+	if s.format == formatJSON {
+		return campaign.WriteTableJSONL(s.w, s.rows)
+	}
+	return campaign.WriteTableCSV(s.w, s.rows)
+}
+
+// measureRun sets up the journalled measurement (and verdicts, keyed by
+// the model's checksum modelSum) of a campaign's traces:
+// one input per trace (named by its ID, described by its campaign row) and
+// one per unusable row (a failure known in advance), the shard's part of
+// them, with the journal in the output directory. traceOf maps an input
+// to its trace in plan.Traces.
+func (o *surveyOptions) measureRun(e *env, plan campaign.Plan, mo campaign.MeasureOptions, modelSum string) (*batchRun, []int, error) {
+	sh, err := o.shard.resolve(e)
+	if err != nil {
+		return nil, nil, err
+	}
+	if sh.on() && !o.tablesOnly {
+		return nil, nil, usagef("shard %s (%s): a shard measures part of the campaign, so add --tables-only, then collate the shards' %s and run the statistics with --from", sh, sh.from, surveyJournal)
+	}
+	type input struct {
+		in batchInput
+		t  int
+	}
+	var all []input
+	for i, t := range plan.Traces {
+		desc, _ := json.Marshal([]string{t.ID, t.Group, t.Device, t.Level, plan.ParamName})
+		all = append(all, input{batchInput{name: t.ID, path: t.Path, desc: digest(string(desc))}, i})
+	}
+	for _, p := range plan.Problems {
+		name := p.Source + ": " + p.File
+		if p.Line > 0 {
+			name = fmt.Sprintf("%s:%d", p.Source, p.Line)
+		}
+		all = append(all, input{batchInput{name: name, err: errors.New(p.String()), line: p.Line}, -1})
+	}
+	slices.SortStableFunc(all, func(a, b input) int { return strings.Compare(a.in.name, b.in.name) })
+	run := &batchRun{command: "survey", shard: sh, journal: filepath.Join(o.out, surveyJournal), resume: o.resume}
+	var traceOf []int
+	for _, a := range all {
+		if !sh.on() || filelist.Shard(a.in.name, sh.N) == sh.K {
+			run.inputs = append(run.inputs, a.in)
+			traceOf = append(traceOf, a.t)
+		}
+	}
+	run.announce(e, len(all))
+	methods := make([]string, len(mo.Methods))
+	for i, m := range mo.Methods {
+		methods[i] = string(m)
+	}
+	options := struct {
+		Input        trace.Options `json:"input"`
+		Metrics      []string      `json:"metrics"`
+		Methods      []string      `json:"methods"`
+		NoSurrogates bool          `json:"no_surrogates"`
+		Surrogates   int           `json:"surrogates"`
+		Seed         uint64        `json:"seed"`
+		Model        string        `json:"model_sha256"` // "" with --no-verdicts
+		Schema       string        `json:"schema"`
+	}{o.in.traceOptions(), mo.Metrics, methods, mo.NoSurrogates, mo.Surrogates, mo.Seed, modelSum, features.SchemaHash()}
+	run.key, run.options, run.render = batchKey("survey", options), options, surveyRender{Format: formatCSV}
+	return run, traceOf, nil
+}
+
+// surveyRender is the output of a collated survey journal: the per-trace
+// table.
+type surveyRender struct {
+	Format string `json:"format"`
+}
+
+func (sr *surveyRender) formats() []string  { return []string{formatCSV, formatJSON} }
+func (sr *surveyRender) setFormat(f string) { sr.Format = f }
+func (sr *surveyRender) sink(w io.Writer) rawSink {
+	return &surveyTableSink{w: w, format: sr.Format}
 }

@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"encoding/csv"
+	"fmt"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -126,7 +127,28 @@ func TestSurveyDemo(t *testing.T) {
 		t.Fatalf("--from: exit %d: %s", code, errOut)
 	}
 
-	a, b := outputs(t, whole), outputs(t, fromDir)
+	// The same campaign in three shards (--shard K/3, by trace), their
+	// journals collated into one per-trace table, the statistics from it.
+	var journals []string
+	for k := range 3 {
+		part := filepath.Join(dir, fmt.Sprintf("shard%d", k))
+		_, errOut, code := runCLI(t, "", append([]string{"survey", filepath.Join(dir, "campaign.csv"), "--tables-only", "--shard", fmt.Sprintf("%d/3", k), "-o", part}, surveyFast...)...)
+		if code != exitOK {
+			t.Fatalf("shard %d: exit %d: %s", k, code, errOut)
+		}
+		journals = append(journals, part)
+	}
+	collated := filepath.Join(dir, "collated.csv")
+	if _, errOut, code := runCLI(t, "", append([]string{"collate", "-o", collated}, journals...)...); code != exitOK {
+		t.Fatalf("collate: exit %d: %s", code, errOut)
+	}
+	shardDir := filepath.Join(dir, "fromshards")
+	if _, errOut, code := runCLI(t, "", "survey", "--from", collated, "-o", shardDir, "--title", "demo"); code != exitOK {
+		t.Fatalf("--from the collated shards: exit %d: %s", code, errOut)
+	}
+
+	a, b, c := outputs(t, whole), outputs(t, fromDir), outputs(t, shardDir)
+	delete(a, surveyJournal) // the run's record, not a result
 	names := make([]string, 0, len(a))
 	for n := range a {
 		names = append(names, n)
@@ -137,12 +159,15 @@ func TestSurveyDemo(t *testing.T) {
 			t.Errorf("%s missing or empty; outputs %q", n, names)
 		}
 	}
-	if len(a) != len(b) {
-		t.Errorf("one run wrote %d files, the merged tables %d", len(a), len(b))
+	if len(a) != len(b) || len(a) != len(c) {
+		t.Errorf("one run wrote %d files, the merged tables %d, the collated shards %d", len(a), len(b), len(c))
 	}
 	for _, n := range names {
 		if !bytes.Equal(a[n], b[n]) {
 			t.Errorf("%s differs between the one run and the merged tables", n)
+		}
+		if !bytes.Equal(a[n], c[n]) {
+			t.Errorf("%s differs between the one run and the collated shards", n)
 		}
 	}
 

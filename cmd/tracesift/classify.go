@@ -2,6 +2,7 @@ package main
 
 import (
 	"bufio"
+	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -23,6 +24,9 @@ const caution = "tracesift's verdict is a screening aid, not a device qualificat
 
 type classifyOptions struct {
 	in      inputOptions
+	src     sourceOptions
+	shard   shardOptions
+	jr      journalOptions
 	model   string
 	format  string
 	out     string
@@ -37,7 +41,7 @@ type classifyOptions struct {
 func newClassifyCmd(e *env) *cobra.Command {
 	var o classifyOptions
 	c := &cobra.Command{
-		Use:   "classify FILE...",
+		Use:   "classify FILE|DIR...",
 		Short: "Tell whether each trace is chaotic, stochastic or regular",
 		Long: `Classify each trace as chaotic (deterministic, positive largest Lyapunov
 exponent), stochastic (noise of any colour or distribution) or regular
@@ -108,17 +112,24 @@ warnings, error}. agreement.kind is agree, disagree, not informative,
 undetermined or inconclusive; error is set (and the rest empty) when the
 test could not run on the trace, which does not fail the file.
 
+` + sourceHelp + `
+
+` + journalHelp + ` The model is part of what a record must match
+(its SHA-256).
+
+` + shardHelp + `
+
 ` + caution,
 		Example: `  tracesift classify testdata/demo/*/*
   tracesift classify --format json testdata/demo/stressed/D01_stressed_Vg1.20.csv
   tracesift generate lorenz --n 5000 --snr 20 | tracesift classify -
   tracesift classify --model lab.model --column Id captures/*.csv
   tracesift classify --significance testdata/demo/stressed/*.csv
-  tracesift classify --significance --surrogates 99 --seed 7 --format json trace.csv`,
+  tracesift classify --significance --surrogates 99 --seed 7 --format json trace.csv
+  tracesift classify --format json --include '*.csv' -o verdicts.jsonl archive/
+  tracesift classify --files-from list.txt --resume -o verdicts.txt
+  tracesift classify --campaign testdata/demo/campaign.csv --shard 0/2 -o v.0.txt   # tracesift collate v.*.txt.journal`,
 		RunE: func(c *cobra.Command, args []string) error {
-			if len(args) == 0 {
-				return usagef("no input files (see 'tracesift classify --help')")
-			}
 			for _, name := range []string{"surrogates", "alpha"} {
 				if c.Flags().Changed(name) && !o.significance {
 					return usagef("--%s applies to the surrogate test: add --significance", name)
@@ -129,6 +140,9 @@ test could not run on the trace, which does not fail the file.
 	}
 	f := c.Flags()
 	o.in.bind(f, features.MinLength)
+	o.src.bind(f)
+	o.shard.bind(f)
+	o.jr.bind(f, "OUTPUT.journal with -o OUTPUT, none on stdout")
 	f.StringVar(&o.model, "model", "", "model file (default: the embedded default model)")
 	f.StringVar(&o.format, "format", formatTable, "output format: table or json (JSON Lines, one object per file)")
 	f.StringVarP(&o.out, "output", "o", "-", "output file (- for stdout)")
@@ -149,7 +163,7 @@ type classifyResult struct {
 	sigErr error
 }
 
-func runClassify(e *env, files []string, o *classifyOptions) error {
+func runClassify(e *env, args []string, o *classifyOptions) error {
 	if err := checkFormat(o.format, formatTable, formatJSON); err != nil {
 		return err
 	}
@@ -165,50 +179,104 @@ func runClassify(e *env, files []string, o *classifyOptions) error {
 	if !(o.alpha > 0 && o.alpha < 1) {
 		return usagef("--alpha %g: want 0 < alpha < 1", o.alpha)
 	}
-	m, err := loadModel(o.model)
+	m, modelSum, err := loadModelSum(o.model)
 	if err != nil {
 		return err
 	}
-	return writeOutput(e, o.out, func(w io.Writer) error {
-		bw := bufio.NewWriter(w)
-		defer bw.Flush()
-		var rows []classifyRow
-		err := batch(e, "traces", files,
-			func(_ int, name string) (classifyResult, error) {
-				tr, err := readTrace(e, name, &o.in)
-				if err != nil {
-					return classifyResult{}, err
-				}
-				v, err := classifier.Screen(m, tr.Values, classifier.ScreenOptions{
-					Interval: intervalSeconds(tr),
-					Drivers:  o.drivers,
-					Features: features.Options{Seed: o.seed},
-				})
-				if err != nil {
-					return classifyResult{}, fmt.Errorf("%s: %w", tr.Source, err)
-				}
-				v.Warnings = append(append([]string{}, tr.Warnings...), v.Warnings...)
-				r := classifyResult{tr: tr, v: v}
-				if o.significance {
-					r.sig, r.sigErr = surrogate.Determinism(tr.Values, surrogate.DeterminismOptions{
-						Count: o.surrogates, Seed: o.seed, Alpha: o.alpha})
-				}
-				return r, nil
-			},
-			func(_ int, name string, r classifyResult) error {
-				if o.format == formatJSON {
-					return writeJSONLine(bw, classifyJSON(name, r))
-				}
-				rows = append(rows, classifyRow{name, r})
-				return nil
-			})
-		if o.format == formatTable && len(rows) > 0 {
-			if werr := writeClassifyTable(bw, rows, m.Source, o); werr != nil {
-				return werr
-			}
-		}
+	run, err := newTraceRun(e, "classify", args, &o.src, &o.shard, &o.jr, o.out)
+	if err != nil {
 		return err
-	})
+	}
+	options := struct {
+		Input        trace.Options `json:"input"`
+		Model        string        `json:"model_sha256"`
+		Seed         uint64        `json:"seed"`
+		Drivers      int           `json:"drivers"`
+		Significance bool          `json:"significance"`
+		Surrogates   int           `json:"surrogates"`
+		Alpha        float64       `json:"alpha"`
+		Schema       string        `json:"schema"`
+	}{o.in.traceOptions(), modelSum, o.seed, o.drivers, o.significance, o.surrogates, o.alpha, features.SchemaHash()}
+	render := &classifyRender{Format: o.format, Model: m.Source, Classes: m.Classes,
+		Significance: o.significance, Surrogates: o.surrogates, Alpha: o.alpha, Seed: o.seed}
+	run.key, run.options, run.render = batchKey("classify", options), options, render
+	return run.run(e, o.out,
+		func(e *env, i int) (any, error) {
+			name := run.inputs[i].name
+			tr, err := readTrace(e, run.inputs[i].path, &o.in)
+			if err != nil {
+				return nil, err
+			}
+			v, err := classifier.Screen(m, tr.Values, classifier.ScreenOptions{
+				Interval: intervalSeconds(tr),
+				Drivers:  o.drivers,
+				Features: features.Options{Seed: o.seed},
+			})
+			if err != nil {
+				return nil, fmt.Errorf("%s: %w", tr.Source, err)
+			}
+			v.Warnings = append(append([]string{}, tr.Warnings...), v.Warnings...)
+			r := classifyResult{tr: tr, v: v}
+			if o.significance {
+				r.sig, r.sigErr = surrogate.Determinism(tr.Values, surrogate.DeterminismOptions{
+					Count: o.surrogates, Seed: o.seed, Alpha: o.alpha})
+			}
+			return classifyJSON(name, r), nil
+		},
+		render.sink)
+}
+
+// classifyRender are the options of the output table, kept in the journal
+// so that collate writes the table the runs would have.
+type classifyRender struct {
+	Format       string   `json:"format"`
+	Model        string   `json:"model"`
+	Classes      []string `json:"classes"`
+	Significance bool     `json:"significance"`
+	Surrogates   int      `json:"surrogates"`
+	Alpha        float64  `json:"alpha"`
+	Seed         uint64   `json:"seed"`
+}
+
+func (cr *classifyRender) formats() []string        { return []string{formatTable, formatJSON} }
+func (cr *classifyRender) setFormat(f string)       { cr.Format = f }
+func (cr *classifyRender) sink(w io.Writer) rawSink { return newClassifySink(w, *cr) }
+
+// classifySink writes verdicts: JSON Lines as they come, or the table
+// (which aligns its columns over every row) at the end. The journal keeps
+// each verdict as its JSON line.
+type classifySink struct {
+	w      *bufio.Writer
+	render classifyRender
+	rows   []classifyLine
+}
+
+func newClassifySink(w io.Writer, cr classifyRender) *classifySink {
+	return &classifySink{w: bufio.NewWriter(w), render: cr}
+}
+
+func (s *classifySink) item(name string, raw json.RawMessage) error {
+	if s.render.Format == formatJSON {
+		if _, err := s.w.Write(raw); err != nil {
+			return err
+		}
+		return s.w.WriteByte('\n')
+	}
+	var l classifyLine
+	if err := json.Unmarshal(raw, &l); err != nil {
+		return fmt.Errorf("%s: damaged record: %w", name, err)
+	}
+	s.rows = append(s.rows, l)
+	return nil
+}
+
+func (s *classifySink) finish() error {
+	if s.render.Format == formatTable && len(s.rows) > 0 {
+		if err := writeClassifyTable(s.w, s.rows, s.render); err != nil {
+			return err
+		}
+	}
+	return s.w.Flush()
 }
 
 // intervalSeconds converts the trace's sample interval to seconds when its
@@ -276,46 +344,40 @@ func nonNil(s []string) []string {
 	return s
 }
 
-type classifyRow struct {
-	name string
-	r    classifyResult
-}
-
-func writeClassifyTable(w io.Writer, rows []classifyRow, model string, o *classifyOptions) error {
-	classes := rows[0].r.v.Classes
+func writeClassifyTable(w io.Writer, rows []classifyLine, cr classifyRender) error {
+	classes := cr.Classes
 	t := newTable(w)
 	head := []string{"FILE", "VERDICT"}
 	for _, c := range classes {
 		head = append(head, "P("+c+")")
 	}
-	novelty := rows[0].r.v.Novelty != nil
+	novelty := rows[0].Novelty != nil
 	if novelty {
 		head = append(head, "NOVELTY")
 	}
-	if o.significance {
+	if cr.Significance {
 		head = append(head, "DETERMINISM P", "SURROGATE TEST")
 	}
 	head = append(head, "DRIVEN BY")
 	t.row(head...)
-	for _, row := range rows {
-		v := row.r.v
-		cells := []string{row.name, v.Class}
-		for i := range classes {
-			cells = append(cells, fmt.Sprintf("%.2f", v.Probabilities[i]))
+	for _, l := range rows {
+		cells := []string{l.File, l.Class}
+		for _, c := range classes {
+			cells = append(cells, fmt.Sprintf("%.2f", float64(l.Probabilities[c])))
 		}
 		if novelty {
 			cell := "—"
-			if v.Novelty != nil {
-				cell = fmt.Sprintf("%.2f", v.Novelty.Percentile)
+			if l.Novelty != nil {
+				cell = fmt.Sprintf("%.2f", l.Novelty.Percentile)
 			}
 			cells = append(cells, cell)
 		}
-		if o.significance {
-			cells = append(cells, significanceCells(row.r.sig)...)
+		if cr.Significance {
+			cells = append(cells, significanceCells(l.Significance)...)
 		}
 		var ds []string
-		for _, d := range v.Drivers {
-			ds = append(ds, fmt.Sprintf("%s=%s", d.Feature, human(d.Value)))
+		for _, d := range l.Drivers {
+			ds = append(ds, fmt.Sprintf("%s=%s", d.Feature, human(float64(d.Value))))
 		}
 		cells = append(cells, strings.Join(ds, ", "))
 		t.row(cells...)
@@ -324,15 +386,14 @@ func writeClassifyTable(w io.Writer, rows []classifyRow, model string, o *classi
 		return err
 	}
 	var notes []string
-	for _, row := range rows {
-		v := row.r.v
-		for _, r := range v.Reasons {
-			notes = append(notes, fmt.Sprintf("  %s: undetermined (most likely %s): %s", row.name, v.Top, r))
+	for _, l := range rows {
+		for _, r := range l.Reasons {
+			notes = append(notes, fmt.Sprintf("  %s: undetermined (most likely %s): %s", l.File, l.Top, r))
 		}
-		for _, wn := range v.Warnings {
-			notes = append(notes, fmt.Sprintf("  %s: %s", row.name, wn))
+		for _, wn := range l.Warnings {
+			notes = append(notes, fmt.Sprintf("  %s: %s", l.File, wn))
 		}
-		notes = append(notes, significanceNotes(row.name, row.r)...)
+		notes = append(notes, significanceNotes(&l)...)
 	}
 	if len(notes) > 0 {
 		fmt.Fprintln(w, "\nnotes:")
@@ -340,9 +401,9 @@ func writeClassifyTable(w io.Writer, rows []classifyRow, model string, o *classi
 			fmt.Fprintln(w, n)
 		}
 	}
-	fmt.Fprintf(w, "\nmodel: %s\n", model)
-	if o.significance {
-		fmt.Fprintln(w, significanceFooter(o))
+	fmt.Fprintf(w, "\nmodel: %s\n", cr.Model)
+	if cr.Significance {
+		fmt.Fprintln(w, significanceFooter(cr))
 	}
 	fmt.Fprintln(w, caution)
 	return nil
@@ -417,41 +478,42 @@ func newSignificanceJSON(r *surrogate.DeterminismResult, err error, class string
 }
 
 // significanceCells are the table cells DETERMINISM P and SURROGATE TEST.
-func significanceCells(r *surrogate.DeterminismResult) []string {
+func significanceCells(s *significanceJSON) []string {
 	switch {
-	case r == nil:
+	case s == nil || s.Error != "":
 		return []string{"—", "failed"}
-	case r.Rejected:
-		return []string{human(r.P()), "significant"}
+	case s.Rejected:
+		return []string{human(float64(s.P)), "significant"}
 	}
-	return []string{human(r.P()), "not significant"}
+	return []string{human(float64(s.P)), "not significant"}
 }
 
 // significanceNotes are the table notes of a trace's surrogate test: why it
 // failed, its warnings, and the model/test comparison unless they agree.
-func significanceNotes(name string, r classifyResult) []string {
-	if r.sigErr != nil {
-		return []string{fmt.Sprintf("  %s: surrogate test failed: %s", name, oneLine(r.sigErr.Error()))}
-	}
-	if r.sig == nil {
+func significanceNotes(l *classifyLine) []string {
+	s := l.Significance
+	if s == nil {
 		return nil
 	}
-	var notes []string
-	if a := r.sig.Agreement(r.v.Class); a.Kind != surrogate.Agree {
-		notes = append(notes, fmt.Sprintf("  %s: %s verdict, surrogate test: %s", name, r.v.Class, a.Text))
+	if s.Error != "" {
+		return []string{fmt.Sprintf("  %s: surrogate test failed: %s", l.File, s.Error)}
 	}
-	for _, w := range r.sig.Warnings {
-		notes = append(notes, fmt.Sprintf("  %s: surrogate test: %s", name, w))
+	var notes []string
+	if a := s.Agreement; a != nil && a.Kind != string(surrogate.Agree) {
+		notes = append(notes, fmt.Sprintf("  %s: %s verdict, surrogate test: %s", l.File, l.Class, a.Text))
+	}
+	for _, w := range s.Warnings {
+		notes = append(notes, fmt.Sprintf("  %s: surrogate test: %s", l.File, w))
 	}
 	return notes
 }
 
 // significanceFooter states how the surrogate test was run.
-func significanceFooter(o *classifyOptions) string {
-	m := o.surrogates
+func significanceFooter(cr classifyRender) string {
+	m := cr.Surrogates
 	if m == 0 {
-		m = surrogate.DeterminismSurrogates(o.alpha)
+		m = surrogate.DeterminismSurrogates(cr.Alpha)
 	}
 	return fmt.Sprintf("surrogate test: %d IAAFT surrogates per trace, seed %d, α = %s; %s one-sided rank tests, Holm-adjusted; null: %s; middle %d samples of longer traces, end matched",
-		m, o.seed, human(o.alpha), strings.Join(surrogate.DeterminismStatNames(), " and "), surrogate.IAAFT.NullHypothesis(), surrogate.DefaultDeterminismLength)
+		m, cr.Seed, human(cr.Alpha), strings.Join(surrogate.DeterminismStatNames(), " and "), surrogate.IAAFT.NullHypothesis(), surrogate.DefaultDeterminismLength)
 }

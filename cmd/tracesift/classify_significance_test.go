@@ -72,9 +72,13 @@ func TestClassifySignificanceJSON(t *testing.T) {
 			t.Errorf("agreement %v", agr)
 		}
 	}
+	// The batch is sorted by path: ar1.csv before henon.csv.
 	var h, a classifyLine
-	json.Unmarshal([]byte(lines[0]), &h)
-	json.Unmarshal([]byte(lines[1]), &a)
+	json.Unmarshal([]byte(lines[1]), &h)
+	json.Unmarshal([]byte(lines[0]), &a)
+	if h.File != henon || a.File != ar1 {
+		t.Fatalf("lines for %s and %s, want %s then %s", a.File, h.File, ar1, henon)
+	}
 	s := h.Significance
 	if s == nil || !s.Rejected || float64(s.P) != 0.05 || s.Count != 39 || s.MinSurrogates != 39 || s.Seed != 1 || s.Method != "iaaft" {
 		t.Fatalf("Hénon significance %+v", s)
@@ -169,7 +173,8 @@ func TestClassifySignificanceNotes(t *testing.T) {
 		{"undetermined", true, "model is undetermined"},
 	}
 	for _, c := range cases {
-		notes := significanceNotes("x.csv", mk(c.class, c.rejected))
+		l := classifyJSON("x.csv", mk(c.class, c.rejected))
+		notes := significanceNotes(&l)
 		switch {
 		case c.want == "" && len(notes) != 0:
 			t.Errorf("%s, rejected %v: unexpected notes %q", c.class, c.rejected, notes)
@@ -178,7 +183,8 @@ func TestClassifySignificanceNotes(t *testing.T) {
 		}
 	}
 	failed := classifyResult{v: classifier.Verdict{Class: "chaotic"}, sigErr: surrogate.ErrTooShort}
-	if n := significanceNotes("x.csv", failed); len(n) != 1 || !strings.Contains(n[0], "surrogate test failed") {
+	fl := classifyJSON("x.csv", failed)
+	if n := significanceNotes(&fl); len(n) != 1 || !strings.Contains(n[0], "surrogate test failed") {
 		t.Errorf("failed test: %q", n)
 	}
 	if c := significanceCells(nil); c[1] != "failed" {

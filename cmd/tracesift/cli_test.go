@@ -12,11 +12,19 @@ import (
 )
 
 // runCLI runs the command line against buffers and returns stdout, stderr and
-// the exit status.
+// the exit status. The command sees no environment, so a test run inside a
+// scheduler's job array is not sharded by it.
 func runCLI(t *testing.T, stdin string, args ...string) (string, string, int) {
 	t.Helper()
+	return runCLIEnv(t, nil, stdin, args...)
+}
+
+// runCLIEnv is runCLI with the environment variables vars.
+func runCLIEnv(t *testing.T, vars map[string]string, stdin string, args ...string) (string, string, int) {
+	t.Helper()
 	var out, errb bytes.Buffer
-	code := run(args, strings.NewReader(stdin), &out, &errb)
+	e := &env{stdin: strings.NewReader(stdin), stdout: &out, stderr: &errb, getenv: func(k string) string { return vars[k] }}
+	code := runEnv(e, args)
 	return out.String(), errb.String(), code
 }
 

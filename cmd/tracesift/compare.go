@@ -8,7 +8,6 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
-	"sort"
 	"strconv"
 	"strings"
 
@@ -17,6 +16,7 @@ import (
 	"github.com/tracesift/tracesift/features"
 	"github.com/tracesift/tracesift/groups"
 	"github.com/tracesift/tracesift/internal/atomicfile"
+	"github.com/tracesift/tracesift/internal/filelist"
 	"github.com/tracesift/tracesift/networks"
 	"github.com/tracesift/tracesift/networks/visibility"
 )
@@ -25,6 +25,7 @@ func init() { addCommand(newCompareCmd) }
 
 type compareOptions struct {
 	in         inputOptions
+	include    []string
 	groups     []string
 	param      string
 	paramLabel string
@@ -42,8 +43,10 @@ func newCompareCmd(e *env) *cobra.Command {
 		Use:   "compare --group NAME=PATH... [--param REGEX] [-o DIR]",
 		Short: "Compare groups of traces feature by feature (e.g. fresh versus stressed devices)",
 		Long: `Compare groups of traces, such as fresh and stressed devices, feature by
-feature. A group is NAME=PATH where PATH is a directory (every file in it),
-a glob pattern or a file; --group may be repeated. For every pair of groups
+feature. A group is NAME=PATH where PATH is a directory (every file below
+it, recursively, except hidden and Markdown files, or those matching
+--include), a glob pattern, a file, or @LIST (a file listing paths, one per
+line); --group may be repeated. For every pair of groups
 and every feature: group medians and interquartile ranges, the two-sample
 Kolmogorov–Smirnov and Mann–Whitney p-values adjusted for the number of
 features (Holm by default, or Benjamini–Hochberg), and effect sizes
@@ -63,7 +66,8 @@ columns and values as the CSV tables.`,
 		Example: `  tracesift compare --group fresh=testdata/demo/fresh --group stressed=testdata/demo/stressed
   tracesift compare --group fresh=testdata/demo/fresh --group stressed=testdata/demo/stressed \
       --param 'Vg([0-9.]+)' --param-label 'gate bias V_G (V)' -o compare-out
-  tracesift compare --group A='runs/a/*.csv' --group B='runs/b/*.csv' --adjust bh --all`,
+  tracesift compare --group A='runs/a/*.csv' --group B='runs/b/*.csv' --adjust bh --all
+  tracesift compare --group fresh=@fresh.txt --group stressed=archive/stressed --include '*.csv.gz'`,
 		Args: cobra.NoArgs,
 		RunE: func(c *cobra.Command, _ []string) error {
 			return runCompare(e, &o)
@@ -71,7 +75,8 @@ columns and values as the CSV tables.`,
 	}
 	f := c.Flags()
 	o.in.bind(f, features.MinLength)
-	f.StringArrayVar(&o.groups, "group", nil, "group as NAME=PATH (directory, glob or file); repeat for each group")
+	f.StringArrayVar(&o.groups, "group", nil, "group as NAME=PATH (directory, glob, file or @LIST); repeat for each group")
+	f.StringArrayVar(&o.include, "include", nil, "in directories, take only files whose name matches this glob (e.g. '*.csv'); repeatable")
 	f.StringVar(&o.param, "param", "", "regular expression extracting a control parameter from each file name (first capture group)")
 	f.StringVar(&o.paramLabel, "param-label", "", "axis label of the control parameter in plots (default: parameter)")
 	f.StringVarP(&o.out, "output", "o", "", "directory for the full output (Markdown, CSV, JSON, PNG); created if missing")
@@ -83,9 +88,14 @@ columns and values as the CSV tables.`,
 	return c
 }
 
-// groupFiles resolves NAME=PATH specs into (group, file) pairs in a stable
-// order.
-func groupFiles(specs []string) (names []string, files [][]string, err error) {
+// groupFiles resolves NAME=PATH specs into (group, file) pairs, each
+// group's files sorted and each file once. PATH is a directory (walked
+// recursively, filtered by the include globs), a file, a glob pattern, or
+// @LIST, a file listing paths one per line.
+func groupFiles(specs, include []string) (names []string, files [][]string, err error) {
+	if err := filelist.CheckPatterns(include); err != nil {
+		return nil, nil, usageError{fmt.Errorf("--include: %w", err)}
+	}
 	seen := map[string]bool{}
 	for _, s := range specs {
 		name, path, ok := strings.Cut(s, "=")
@@ -97,28 +107,36 @@ func groupFiles(specs []string) (names []string, files [][]string, err error) {
 			return nil, nil, usagef("--group %q: group %s given twice", s, name)
 		}
 		seen[name] = true
-		var list []string
-		if st, err := os.Stat(path); err == nil && st.IsDir() {
-			ents, err := os.ReadDir(path)
+		c := filelist.Collector{Include: include}
+		if list, isList := strings.CutPrefix(path, "@"); isList {
+			f, err := os.Open(list)
 			if err != nil {
 				return nil, nil, fmt.Errorf("group %s: %w", name, err)
 			}
-			for _, en := range ents {
-				if !en.IsDir() && !strings.HasPrefix(en.Name(), ".") && !strings.EqualFold(filepath.Ext(en.Name()), ".md") {
-					list = append(list, filepath.Join(path, en.Name()))
-				}
+			err = c.AddList(f, list)
+			f.Close()
+			if err != nil {
+				return nil, nil, fmt.Errorf("group %s: %w", name, err)
 			}
-		} else if err == nil {
-			list = []string{path}
+		} else if _, err := os.Stat(path); err == nil {
+			c.Add(path, "")
 		} else {
-			list, err = filepath.Glob(path)
+			matches, err := filepath.Glob(path)
 			if err != nil {
 				return nil, nil, usagef("--group %q: bad pattern: %v", s, err)
 			}
+			for _, m := range matches {
+				c.Add(m, "")
+			}
 		}
-		sort.Strings(list)
+		var list []string
+		for _, en := range c.Entries() {
+			list = append(list, en.Name)
+		}
 		if len(list) == 0 {
 			switch st, err := os.Stat(path); {
+			case strings.HasPrefix(path, "@"):
+				return nil, nil, fmt.Errorf("group %s: list %s names no file", name, path[1:])
 			case err == nil && st.IsDir():
 				return nil, nil, fmt.Errorf("group %s: directory %s holds no trace files", name, path)
 			case !strings.ContainsAny(path, "*?["):
@@ -162,7 +180,7 @@ func runCompare(e *env, o *compareOptions) error {
 			return usagef("--param %q: %v", o.param, err)
 		}
 	}
-	names, files, err := groupFiles(o.groups)
+	names, files, err := groupFiles(o.groups, o.include)
 	if err != nil {
 		return err
 	}

@@ -2,9 +2,11 @@ package main
 
 import (
 	"bufio"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"strings"
 	"sync"
 
@@ -29,6 +31,9 @@ var coreFeatures = []string{
 
 type featuresOptions struct {
 	in       inputOptions
+	src      sourceOptions
+	shard    shardOptions
+	jr       journalOptions
 	format   string
 	out      string
 	all      bool
@@ -40,7 +45,7 @@ type featuresOptions struct {
 func newFeaturesCmd(e *env) *cobra.Command {
 	var o featuresOptions
 	c := &cobra.Command{
-		Use:   "features FILE...",
+		Use:   "features FILE|DIR...",
 		Short: "Compute the feature vector of each trace",
 		Long: `Compute the features the classifier reads: visibility-graph metrics,
 nonlinear measures (Lyapunov exponent, correlation dimension, 0–1 test,
@@ -68,12 +73,23 @@ windows. --window 0 measures any trace whole: 4.1 GB for those 10^7
 samples, whose natural visibility graph then passes --max-edges (the edge
 budget of each visibility graph, about ` + fmt.Sprint(networks.BytesPerEdge) + ` bytes per edge at the peak), so
 its features are missing. With one input file, a progress bar on a
-terminal counts feature families per window.`,
+terminal counts feature families per window.
+
+` + sourceHelp + `
+
+` + journalHelp + `
+
+` + shardHelp,
 		Example: `  tracesift features testdata/demo/fresh/D01_fresh_Vg0.60.csv
   tracesift features --all --format json testdata/demo/stressed/*.csv*
   tracesift generate henon --n 5000 | tracesift features -
-  tracesift features --format csv -o features.csv testdata/demo/*/*
-  tracesift features --all --format parquet -o features.parquet testdata/demo/*/*
+  tracesift features --format csv -o features.csv testdata/demo   # a directory, recursively
+  tracesift features --format csv --include '*.csv.gz' -o f.csv archive/
+  find archive -name '*.csv' > list.txt; tracesift features --files-from list.txt --format csv -o f.csv
+  tracesift features --campaign testdata/demo/campaign.csv --format csv -o f.csv
+  tracesift features --files-from list.txt --format csv --resume -o f.csv   # after a kill: only what is left
+  tracesift features --files-from list.txt --format csv --shard 2/4 -o f.2.csv   # then: tracesift collate f.*.csv.journal
+  tracesift features --all --format parquet -o features.parquet testdata/demo   # a binary table (needs -o)
   tracesift features --column current testdata/formats/run.npz      # one array of a NumPy archive
   tracesift features --column 'TW-W07 D03 stressed/Id' testdata/demo/D03-stressed-1.20V.tdms
   tracesift features --window 100000 long.csv   # windows of 10^5 samples`,
@@ -82,14 +98,14 @@ terminal counts feature families per window.`,
 			if list {
 				return writeCatalogue(e)
 			}
-			if len(args) == 0 {
-				return usagef("no input files (see 'tracesift features --help')")
-			}
 			return runFeatures(e, args, &o)
 		},
 	}
 	f := c.Flags()
 	o.in.bind(f, features.MinLength)
+	o.src.bind(f)
+	o.shard.bind(f)
+	o.jr.bind(f, "OUTPUT.journal with -o OUTPUT, none on stdout")
 	f.StringVar(&o.format, "format", formatTable, "output format: table, csv, json (JSON Lines, one object per file) or parquet (the CSV table's columns and values; needs -o FILE)")
 	f.StringVarP(&o.out, "output", "o", "-", "output file (- for stdout)")
 	f.BoolVar(&o.all, "all", false, "print the whole feature vector and the extended families (rn_*, opn_*), not only the core features")
@@ -100,22 +116,129 @@ terminal counts feature families per window.`,
 	return c
 }
 
-// featureResult is one file's measured vector.
-type featureResult struct {
-	tr  trace.Trace
-	vec features.Vector
+// featuresRecord is one trace's measured vector as the journal keeps it:
+// every feature of the catalogue at full precision (jsonsafe.Exact, so it
+// reads back to the same bits), with the reasons of the missing ones and
+// what was read, so that every output format is written from it.
+type featuresRecord struct {
+	Samples      int                       `json:"samples"`
+	Interval     jsonsafe.Exact            `json:"interval,omitempty"`
+	TimeUnit     string                    `json:"time_unit,omitempty"`
+	Column       string                    `json:"column,omitempty"`
+	Unit         string                    `json:"unit,omitempty"`
+	Warnings     []string                  `json:"warnings,omitempty"`
+	Features     map[string]jsonsafe.Exact `json:"features"`
+	Missing      map[string]string         `json:"missing,omitempty"`
+	Windows      int                       `json:"windows,omitempty"`
+	WindowLength int                       `json:"window_length,omitempty"`
+	Spread       map[string]spreadRecord   `json:"spread,omitempty"`
 }
 
-func runFeatures(e *env, files []string, o *featuresOptions) error {
+type spreadRecord struct {
+	Measured int            `json:"measured"`
+	Min      jsonsafe.Exact `json:"min"`
+	Max      jsonsafe.Exact `json:"max"`
+}
+
+func newFeaturesRecord(tr trace.Trace, v features.Vector) featuresRecord {
+	r := featuresRecord{Samples: len(tr.Values), Interval: jsonsafe.Exact(tr.Interval), TimeUnit: tr.TimeUnit,
+		Column: tr.Column, Unit: tr.Unit, Warnings: tr.Warnings, Features: map[string]jsonsafe.Exact{}}
+	if v.Windows > 1 {
+		r.Windows, r.WindowLength, r.Spread = v.Windows, v.WindowLength, map[string]spreadRecord{}
+	}
+	for i, n := range v.Names {
+		r.Features[n] = jsonsafe.Exact(v.Values[i])
+		if why := featureReason(v, i); why != "" {
+			if r.Missing == nil {
+				r.Missing = map[string]string{}
+			}
+			r.Missing[n] = why
+		}
+		if v.Windows > 1 {
+			sp := v.Spread[i]
+			r.Spread[n] = spreadRecord{sp.Measured, jsonsafe.Exact(sp.Min), jsonsafe.Exact(sp.Max)}
+		}
+	}
+	return r
+}
+
+// value returns feature n (NaN when missing or unknown).
+func (r *featuresRecord) value(n string) float64 {
+	v, ok := r.Features[n]
+	if !ok {
+		return math.NaN()
+	}
+	return float64(v)
+}
+
+// featuresRender are the options of the output table, kept in the journal
+// so that collate writes the table the runs would have.
+type featuresRender struct {
+	Format string `json:"format"`
+	All    bool   `json:"all"`
+}
+
+func (fr *featuresRender) formats() []string {
+	return []string{formatTable, formatCSV, formatJSON, formatParquet}
+}
+func (fr *featuresRender) setFormat(f string) { fr.Format = f }
+
+// sink writes the records in the render's format; Parquet is the CSV
+// table converted as a whole at the end.
+func (fr *featuresRender) sink(w io.Writer) rawSink {
+	if fr.Format == formatParquet {
+		csv := *fr
+		csv.Format = formatCSV
+		return newParquetSink(w, featureKinds, csv.sink)
+	}
+	return newFeaturesSink(w, *fr)
+}
+
+func (fr featuresRender) names() []string {
+	if fr.All {
+		return features.AllNames()
+	}
+	return coreFeatures
+}
+
+// featuresSink writes feature records in one of the output formats.
+type featuresSink struct {
+	w      *bufio.Writer
+	render featuresRender
+	names  []string
+	first  bool
+}
+
+func newFeaturesSink(w io.Writer, fr featuresRender) *featuresSink {
+	return &featuresSink{w: bufio.NewWriter(w), render: fr, names: fr.names(), first: true}
+}
+
+func (s *featuresSink) item(name string, raw json.RawMessage) error {
+	var r featuresRecord
+	if err := json.Unmarshal(raw, &r); err != nil {
+		return fmt.Errorf("%s: damaged record: %w", name, err)
+	}
+	defer func() { s.first = false }()
+	switch s.render.Format {
+	case formatJSON:
+		return writeJSONLine(s.w, featuresJSON(name, &r, s.names))
+	case formatCSV:
+		return writeFeaturesCSV(s.w, name, &r, s.names, s.first)
+	}
+	if !s.first {
+		fmt.Fprintln(s.w)
+	}
+	return writeFeaturesTable(s.w, name, &r, s.names, s.render.All)
+}
+
+func (s *featuresSink) finish() error { return s.w.Flush() }
+
+func runFeatures(e *env, args []string, o *featuresOptions) error {
 	if err := checkFormat(o.format, formatTable, formatCSV, formatJSON, formatParquet); err != nil {
 		return err
 	}
-	format, parquet := o.format, o.format == formatParquet
-	if parquet && (o.out == "-" || o.out == "") {
+	if o.format == formatParquet && (o.out == "-" || o.out == "") {
 		return usagef("--format parquet writes a binary file: give it with -o FILE")
-	}
-	if parquet {
-		format = formatCSV // the CSV table, converted as a whole
 	}
 	if err := o.in.validate(); err != nil {
 		return err
@@ -130,8 +253,12 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 	if o.maxEdges < 1 {
 		return usagef("--max-edges %d: want at least 1", o.maxEdges)
 	}
+	run, err := newTraceRun(e, "features", args, &o.src, &o.shard, &o.jr, o.out)
+	if err != nil {
+		return err
+	}
 	fopts := features.Options{Seed: o.seed, Window: window, MaxEdges: o.maxEdges, Extended: o.all}
-	if len(files) == 1 {
+	if len(run.inputs) == 1 {
 		// Within one trace, a bar counting feature families per window
 		// (a batch of files has its own bar, per file).
 		var once sync.Once
@@ -143,44 +270,52 @@ func runFeatures(e *env, files []string, o *featuresOptions) error {
 			}
 		}
 	}
-	names := coreFeatures
-	if o.all {
-		names = features.AllNames()
+	options := struct {
+		Input    trace.Options `json:"input"`
+		Seed     uint64        `json:"seed"`
+		Window   int           `json:"window"`
+		MaxEdges int64         `json:"max_edges"`
+		Extended bool          `json:"extended"`
+		Schema   string        `json:"schema"`
+	}{o.in.traceOptions(), o.seed, window, o.maxEdges, o.all, features.SchemaHash()}
+	render := &featuresRender{Format: o.format, All: o.all}
+	run.key, run.options, run.render = batchKey("features", options), options, render
+	return run.run(e, o.out,
+		func(e *env, i int) (any, error) {
+			tr, err := readTrace(e, run.inputs[i].path, &o.in)
+			if err != nil {
+				return nil, err
+			}
+			v, err := features.Extract(tr.Values, fopts)
+			if err != nil {
+				return nil, fmt.Errorf("%s: %w", tr.Source, err)
+			}
+			return newFeaturesRecord(tr, v), nil
+		},
+		render.sink)
+}
+
+// newTraceRun gathers the inputs of a batch command over trace files,
+// takes its shard and resolves its journal.
+func newTraceRun(e *env, command string, args []string, src *sourceOptions, so *shardOptions, jo *journalOptions, out string) (*batchRun, error) {
+	if len(args)+len(src.filesFrom)+len(src.campaign) == 0 {
+		return nil, usagef("no input files (see 'tracesift %s --help')", command)
 	}
-	fill := func(w io.Writer) error {
-		bw := bufio.NewWriter(w)
-		defer bw.Flush()
-		first := true
-		return batch(e, "traces", files,
-			func(_ int, name string) (featureResult, error) {
-				tr, err := readTrace(e, name, &o.in)
-				if err != nil {
-					return featureResult{}, err
-				}
-				v, err := features.Extract(tr.Values, fopts)
-				if err != nil {
-					return featureResult{}, fmt.Errorf("%s: %w", tr.Source, err)
-				}
-				return featureResult{tr, v}, nil
-			},
-			func(_ int, name string, r featureResult) error {
-				defer func() { first = false }()
-				switch format {
-				case formatJSON:
-					return writeJSONLine(bw, featuresJSON(name, r, names))
-				case formatCSV:
-					return writeFeaturesCSV(bw, name, r, names, first)
-				}
-				if !first {
-					fmt.Fprintln(bw)
-				}
-				return writeFeaturesTable(bw, name, r, names, o.all)
-			})
+	sh, err := so.resolve(e)
+	if err != nil {
+		return nil, err
 	}
-	if parquet {
-		fill = asParquet(featureKinds, fill)
+	jpath, err := jo.resolve(out)
+	if err != nil {
+		return nil, err
 	}
-	return writeOutput(e, o.out, fill)
+	list, err := src.collect(e, args)
+	if err != nil {
+		return nil, err
+	}
+	run := &batchRun{command: command, inputs: entriesToInputs(sh.take(list)), shard: sh, journal: jpath, resume: jo.resume}
+	run.announce(e, len(list))
+	return run, nil
 }
 
 type featuresLine struct {
@@ -205,38 +340,27 @@ type spreadJSON struct {
 	Max      jsonsafe.Float `json:"max"`
 }
 
-func featuresJSON(name string, r featureResult, names []string) featuresLine {
-	l := featuresLine{File: name, Samples: len(r.tr.Values), Interval: jsonsafe.Float(r.tr.Interval),
-		Column: r.tr.Column, Unit: r.tr.Unit, Features: map[string]jsonsafe.Float{}, Warnings: r.tr.Warnings}
-	windowed := r.vec.Windows > 1
+func featuresJSON(name string, r *featuresRecord, names []string) featuresLine {
+	l := featuresLine{File: name, Samples: r.Samples, Interval: jsonsafe.Float(r.Interval),
+		Column: r.Column, Unit: r.Unit, Features: map[string]jsonsafe.Float{}, Warnings: r.Warnings}
+	windowed := r.Windows > 1
 	if windowed {
-		l.Windows, l.WindowLength, l.Spread = r.vec.Windows, r.vec.WindowLength, map[string]spreadJSON{}
+		l.Windows, l.WindowLength, l.Spread = r.Windows, r.WindowLength, map[string]spreadJSON{}
 	}
 	for _, n := range names {
-		i := index(r.vec, n)
-		l.Features[n] = jsonsafe.Float(r.vec.Values[i])
-		if why := featureReason(r.vec, i); why != "" {
+		l.Features[n] = jsonsafe.Float(r.value(n))
+		if why := r.Missing[n]; why != "" {
 			if l.Missing == nil {
 				l.Missing = map[string]string{}
 			}
 			l.Missing[n] = why
 		}
 		if windowed {
-			sp := r.vec.Spread[i]
+			sp := r.Spread[n]
 			l.Spread[n] = spreadJSON{sp.Measured, jsonsafe.Float(sp.Min), jsonsafe.Float(sp.Max)}
 		}
 	}
 	return l
-}
-
-// index returns the position of a catalogue feature in v.
-func index(v features.Vector, name string) int {
-	for i, n := range v.Names {
-		if n == name {
-			return i
-		}
-	}
-	panic("features: no feature " + name) // names come from the catalogue
 }
 
 // featureReason is why feature i of v is missing ("" when present), with a
@@ -254,14 +378,14 @@ func featureReason(v features.Vector, i int) string {
 		eb.Graph, eb.Nodes, where, eb.Budget, memory(eb.Budget))
 }
 
-func writeFeaturesCSV(w io.Writer, name string, r featureResult, names []string, header bool) error {
+func writeFeaturesCSV(w io.Writer, name string, r *featuresRecord, names []string, header bool) error {
 	if header {
 		fmt.Fprintf(w, "file,samples,%s\n", strings.Join(names, ","))
 	}
-	cells := []string{csvField(name), fmt.Sprint(len(r.tr.Values))}
+	cells := []string{csvField(name), fmt.Sprint(r.Samples)}
 	for _, n := range names {
-		v, ok := r.vec.Get(n)
-		if !ok {
+		v := r.value(n)
+		if math.IsNaN(v) {
 			cells = append(cells, "")
 			continue
 		}
@@ -279,13 +403,13 @@ func csvField(s string) string {
 	return s
 }
 
-func writeFeaturesTable(w io.Writer, name string, r featureResult, names []string, all bool) error {
-	fmt.Fprintf(w, "%s: %s\n", name, describeTrace(r.tr))
-	windowed := r.vec.Windows > 1
+func writeFeaturesTable(w io.Writer, name string, r *featuresRecord, names []string, all bool) error {
+	fmt.Fprintf(w, "%s: %s\n", name, describeTrace(r))
+	windowed := r.Windows > 1
 	if windowed {
-		fmt.Fprintf(w, "  measured in %d windows of at most %d samples: medians over the windows, with their range\n", r.vec.Windows, r.vec.WindowLength)
+		fmt.Fprintf(w, "  measured in %d windows of at most %d samples: medians over the windows, with their range\n", r.Windows, r.WindowLength)
 	}
-	for _, warn := range r.tr.Warnings {
+	for _, warn := range r.Warnings {
 		fmt.Fprintf(w, "  warning: %s\n", warn)
 	}
 	t := newTable(w)
@@ -298,39 +422,39 @@ func writeFeaturesTable(w io.Writer, name string, r featureResult, names []strin
 	}
 	t.row(append(head, "NOTE")...)
 	for _, n := range names {
-		i := index(r.vec, n)
-		cells := []string{n, human(r.vec.Values[i])}
+		v := r.value(n)
+		cells := []string{n, human(v)}
 		if all {
 			e, _ := features.Lookup(n)
-			cells = []string{n, string(e.Family), human(r.vec.Values[i])}
+			cells = []string{n, string(e.Family), human(v)}
 		}
 		if windowed {
-			sp := r.vec.Spread[i]
+			sp := r.Spread[n]
 			rng := "—"
 			if sp.Measured > 0 {
-				rng = fmt.Sprintf("%s … %s (%d/%d)", human(sp.Min), human(sp.Max), sp.Measured, r.vec.Windows)
+				rng = fmt.Sprintf("%s … %s (%d/%d)", human(float64(sp.Min)), human(float64(sp.Max)), sp.Measured, r.Windows)
 			}
 			cells = append(cells, rng)
 		}
-		t.row(append(cells, featureReason(r.vec, i))...)
+		t.row(append(cells, r.Missing[n])...)
 	}
 	return t.flush()
 }
 
 // describeTrace summarises what was read: length, interval and column.
-func describeTrace(tr trace.Trace) string {
-	parts := []string{fmt.Sprintf("%d samples", len(tr.Values))}
-	if tr.Interval > 0 {
-		unit := tr.TimeUnit
+func describeTrace(r *featuresRecord) string {
+	parts := []string{fmt.Sprintf("%d samples", r.Samples)}
+	if r.Interval > 0 {
+		unit := r.TimeUnit
 		if unit == "" {
 			unit = "time units"
 		}
-		parts = append(parts, fmt.Sprintf("interval %s %s", human(tr.Interval), unit))
+		parts = append(parts, fmt.Sprintf("interval %s %s", human(float64(r.Interval)), unit))
 	}
-	if tr.Column != "" {
-		col := tr.Column
-		if tr.Unit != "" {
-			col += " [" + tr.Unit + "]"
+	if r.Column != "" {
+		col := r.Column
+		if r.Unit != "" {
+			col += " [" + r.Unit + "]"
 		}
 		parts = append(parts, "column "+col)
 	}

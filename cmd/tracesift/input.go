@@ -98,10 +98,11 @@ func (b *batchError) succeeded() int { return b.total - len(b.failures) }
 
 // batch runs work on each input in parallel (at most GOMAXPROCS at once)
 // and hands the results to emit in input order, so output is deterministic.
-// An input whose work fails is reported on stderr as one line and skipped;
-// the others go on. batch returns a *batchError (errSomeFailed) when any
-// input failed. what names the inputs in the progress bar drawn on a
-// terminal ("traces").
+// An input whose work fails is skipped and the others go on; at the end
+// each failure is reported on stderr as one line, in input order, with the
+// count. batch returns a *batchError (errSomeFailed) when any input failed.
+// what names the inputs in the progress display ("traces"). Commands whose
+// results should survive a kill go through a batchRun (journalled.go).
 func batch[R any](e *env, what string, inputs []string, work func(i int, name string) (R, error), emit func(i int, name string, r R) error) error {
 	type slot struct {
 		r    R
@@ -112,7 +113,7 @@ func batch[R any](e *env, what string, inputs []string, work func(i int, name st
 	for i := range slots {
 		slots[i].done = make(chan struct{})
 	}
-	progress := newProgress(e, len(inputs), what)
+	progress := startProgress(e, len(inputs), what, what)
 	sem := make(chan struct{}, max(1, runtime.GOMAXPROCS(0)))
 	var wg sync.WaitGroup
 	go func() {
@@ -131,32 +132,23 @@ func batch[R any](e *env, what string, inputs []string, work func(i int, name st
 	var emitErr error
 	for i, name := range inputs {
 		<-slots[i].done
-		if progress != nil {
-			progress(i+1, len(inputs))
-		}
+		progress.step(slots[i].err != nil)
 		if slots[i].err != nil {
-			reason := oneLine(slots[i].err.Error())
-			failures = append(failures, batchFailure{Name: name, Reason: reason})
-			fmt.Fprintf(e.stderr, "tracesift: %s\n", reason)
+			failures = append(failures, batchFailure{Name: name, Reason: oneLine(slots[i].err.Error())})
 			continue
 		}
 		if emitErr == nil {
 			emitErr = emit(i, name, slots[i].r)
 		}
+		var zero R
+		slots[i].r = zero // emitted: memory stays flat in the number of inputs
 	}
 	wg.Wait()
+	progress.finish()
 	if emitErr != nil {
 		return emitErr
 	}
-	if len(failures) > 0 {
-		if len(failures) == len(inputs) && len(inputs) > 1 {
-			fmt.Fprintf(e.stderr, "tracesift: all %d inputs failed\n", len(failures))
-		} else if len(inputs) > 1 {
-			fmt.Fprintf(e.stderr, "tracesift: %d of %d inputs failed\n", len(failures), len(inputs))
-		}
-		return &batchError{total: len(inputs), failures: failures}
-	}
-	return nil
+	return reportFailures(e, failures, len(inputs))
 }
 
 // readTrace reads one input with the shared options; "-" is stdin. A trace

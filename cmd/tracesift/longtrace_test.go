@@ -154,7 +154,7 @@ func TestFeaturesProgressWithinOneTrace(t *testing.T) {
 	a := writeSeries(t, dir, "a.csv", "ar1", "--n", "3000", "--seed", "1")
 	var out, errb bytes.Buffer
 	code := runEnv(&env{stdin: strings.NewReader(""), stdout: &out, stderr: &errb, terminal: true}, []string{"features", "--window", "1024", a})
-	if code != exitOK || !strings.Contains(errb.String(), "measuring") || !strings.Contains(errb.String(), "/15)") {
+	if code != exitOK || !strings.Contains(errb.String(), "measuring") || !strings.Contains(errb.String(), "/15, ") {
 		t.Errorf("on a terminal: exit %d, stderr %q; want a bar over 3 windows × 5 families", code, errb.String())
 	}
 	if _, stderr, _ := runCLI(t, "", "features", "--window", "1024", a); stderr != "" {

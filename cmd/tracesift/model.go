@@ -2,6 +2,8 @@ package main
 
 import (
 	"bytes"
+	"crypto/sha256"
+	"encoding/hex"
 	"fmt"
 
 	"github.com/tracesift/tracesift/classifier"
@@ -38,4 +40,22 @@ func loadModel(path string) (*classifier.Model, error) {
 		return nil, fmt.Errorf("%w (retrain it with this version of tracesift)", err)
 	}
 	return m, nil
+}
+
+// loadModelSum is loadModel that also returns the SHA-256 of the model's
+// bytes, which journal records are keyed by.
+func loadModelSum(path string) (*classifier.Model, string, error) {
+	m, err := loadModel(path)
+	if err != nil {
+		return nil, "", err
+	}
+	if path == "" {
+		s := sha256.Sum256(models.Default())
+		return m, hex.EncodeToString(s[:]), nil
+	}
+	sum := fileSum(path)
+	if sum == "" {
+		return nil, "", fmt.Errorf("%s: cannot be read again", path)
+	}
+	return m, sum, nil
 }

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"errors"
 	"io"
 	"strings"
@@ -108,4 +109,32 @@ func parquetTwins(on bool, outs []tableOutput) []tableOutput {
 		}
 	}
 	return append(outs, twins...)
+}
+
+// parquetSink writes a journalled command's CSV table as Parquet: the
+// records go through the command's CSV sink into a buffer, converted as a
+// whole when the batch ends (nothing when no record came).
+type parquetSink struct {
+	w     io.Writer
+	kinds columnar.Kinds
+	buf   bytes.Buffer
+	csv   rawSink
+}
+
+func newParquetSink(w io.Writer, kinds columnar.Kinds, csv func(io.Writer) rawSink) *parquetSink {
+	s := &parquetSink{w: w, kinds: kinds}
+	s.csv = csv(&s.buf)
+	return s
+}
+
+func (s *parquetSink) item(name string, raw json.RawMessage) error { return s.csv.item(name, raw) }
+
+func (s *parquetSink) finish() error {
+	if err := s.csv.finish(); err != nil {
+		return err
+	}
+	if s.buf.Len() == 0 {
+		return nil
+	}
+	return columnar.FromCSV(s.w, &s.buf, s.kinds)
 }

@@ -7,6 +7,7 @@ import (
 	"os"
 	"runtime/debug"
 	"strings"
+	"time"
 
 	"github.com/spf13/cobra"
 )
@@ -31,6 +32,28 @@ type env struct {
 	// terminal is whether stderr is a terminal: progress bars are drawn
 	// only there.
 	terminal bool
+	// plainEvery is the least time between two plain progress lines on a
+	// stderr that is not a terminal (a log file, a scheduler's output);
+	// 0 writes none.
+	plainEvery time.Duration
+	// quiet (--quiet) silences progress.
+	quiet bool
+	// getenv reads the environment (the scheduler's array index); nil
+	// reads nothing.
+	getenv func(string) string
+}
+
+// plainProgressEvery is how often a batch writes a progress line to a
+// stderr that is not a terminal.
+const plainProgressEvery = 5 * time.Second
+
+// lookupEnv returns the environment variable name, "" when unset or when
+// e reads no environment.
+func (e *env) lookupEnv(name string) string {
+	if e.getenv == nil {
+		return ""
+	}
+	return e.getenv(name)
 }
 
 // commands holds the constructors of the subcommands; each command file adds
@@ -72,6 +95,7 @@ standards.`,
 	root.SetIn(e.stdin)
 	root.SetOut(e.stdout)
 	root.SetErr(e.stderr)
+	root.PersistentFlags().BoolVarP(&e.quiet, "quiet", "q", false, "no progress on stderr (bars on a terminal, a line every few seconds otherwise)")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
 		return usageError{fmt.Errorf("%w (see '%s --help')", err, c.CommandPath())}
 	})
@@ -95,7 +119,11 @@ func versionString() string {
 
 // run executes the command line and returns the exit status.
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
-	return runEnv(&env{stdin: stdin, stdout: stdout, stderr: stderr, terminal: stderrIsTerminal(stderr)}, args)
+	e := &env{stdin: stdin, stdout: stdout, stderr: stderr, terminal: stderrIsTerminal(stderr), getenv: os.Getenv}
+	if _, isFile := stderr.(*os.File); isFile && !e.terminal {
+		e.plainEvery = plainProgressEvery
+	}
+	return runEnv(e, args)
 }
 
 // runEnv executes the command line in e and returns the exit status.
