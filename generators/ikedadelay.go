@@ -93,98 +93,14 @@ func (m IkedaDelay) start(rng *rand.Rand) []float64 { return []float64{0.5 + rng
 
 // Generate returns n samples after the transient.
 func (m IkedaDelay) Generate(n int, rng *rand.Rand) ([]float64, error) {
-	if err := checkN(n); err != nil {
-		return nil, err
-	}
-	if err := m.check(); err != nil {
-		return nil, err
-	}
-	if !(m.Dt > 0) || math.IsInf(m.Dt, 0) {
-		return nil, fmt.Errorf("ikeda-delay: dt = %g, want dt > 0", m.Dt)
-	}
-	s := m.newState(m.start(rng)[0])
-	warm := int(math.Ceil(ikedaDelayTransient / s.h))
-	for i := 0; i < warm; i++ {
-		m.step(s)
-	}
-	out := make([]float64, n)
-	var k int // grid steps taken since the first sample
-	for i := range out {
-		pos := float64(i) * m.Dt / s.h
-		for float64(k) < pos {
-			m.step(s)
-			k++
-		}
-		if k == 0 {
-			out[i] = s.x[s.head]
-		} else {
-			out[i] = ikedaDelaySample(s, pos-float64(k-1))
-		}
-		if !(math.Abs(out[i]) < divergeBound) {
-			return nil, fmt.Errorf("ikeda-delay: %w after %d samples", ErrDiverged, i)
-		}
-	}
-	return out, nil
-}
-
-// ikedaDelaySample returns the cubic Hermite interpolant of the solution at
-// the fraction th ∈ [0, 1] of the last grid step.
-func ikedaDelaySample(s *mgState, th float64) float64 {
-	prev := (s.head + s.d) % (s.d + 1) // grid point before head
-	h00 := (1 + 2*th) * (1 - th) * (1 - th)
-	h10 := th * (1 - th) * (1 - th)
-	h01 := th * th * (3 - 2*th)
-	h11 := th * th * (th - 1)
-	return h00*s.x[prev] + h10*s.h*s.f[prev] + h01*s.x[s.head] + h11*s.h*s.f[s.head]
+	return sampleDelay("ikeda-delay", m, m.start(rng)[0], n, m.Dt, ikedaDelayTransient)
 }
 
 // ikedaDelayLyapunov returns the largest Lyapunov exponent of the
-// discretised delay equation by Benettin's two-trajectory method, as
-// mgLyapunov does: a reference and a perturbed history, their difference
-// over the whole buffer rescaled to 10^−8 every τ time units, the log
-// growth factors averaged over span time units after the generator's
-// transient. The reference history is constant at x0.
+// discretised delay equation (delayLyapunov) after the generator's
+// transient; the reference history is constant at x0.
 func ikedaDelayLyapunov(m IkedaDelay, x0, span float64) (Spectrum, error) {
-	if err := m.check(); err != nil {
-		return Spectrum{}, err
-	}
-	ref := m.newState(x0)
-	warm := int(math.Ceil(ikedaDelayTransient / ref.h))
-	for i := 0; i < warm; i++ {
-		m.step(ref)
-	}
-	per := ref.d // steps per renormalisation: one delay time
-	const d0 = 1e-8
-	pert := &mgState{x: append([]float64(nil), ref.x...), f: append([]float64(nil), ref.f...), head: ref.head, d: ref.d, h: ref.h, steps: ref.steps}
-	dn := d0 / math.Sqrt(float64(len(pert.x)))
-	for i := range pert.x {
-		pert.x[i] += dn
-	}
-	blocks := int(math.Ceil(span / (float64(per) * ref.h)))
-	var sum float64
-	for b := 0; b < blocks; b++ {
-		for i := 0; i < per; i++ {
-			m.step(ref)
-			m.step(pert)
-		}
-		var ss float64
-		for i := range ref.x {
-			dx := pert.x[i] - ref.x[i]
-			ss += dx * dx
-		}
-		dist := math.Sqrt(ss)
-		if !(dist > 0) || math.IsInf(dist, 0) || math.IsNaN(dist) {
-			return Spectrum{}, fmt.Errorf("ikeda-delay: %w: perturbation lost", ErrDiverged)
-		}
-		sum += math.Log(dist / d0)
-		sc := d0 / dist
-		for i := range ref.x {
-			pert.x[i] = ref.x[i] + (pert.x[i]-ref.x[i])*sc
-			pert.f[i] = ref.f[i] + (pert.f[i]-ref.f[i])*sc
-		}
-	}
-	t := float64(blocks*per) * ref.h
-	return Spectrum{Exponents: []float64{sum / t}, Unit: "per time unit", Span: t}, nil
+	return delayLyapunov("ikeda-delay", m, x0, span, ikedaDelayTransient)
 }
 
 // ikedaDelaySpan is the span of both label rules (Class and ClassFrom),

@@ -127,94 +127,14 @@ func (m MackeyGlass) start(rng *rand.Rand) []float64 { return []float64{0.5 + rn
 
 // Generate returns n samples after the transient.
 func (m MackeyGlass) Generate(n int, rng *rand.Rand) ([]float64, error) {
-	if err := checkN(n); err != nil {
-		return nil, err
-	}
-	if err := m.check(); err != nil {
-		return nil, err
-	}
-	if !(m.Dt > 0) || math.IsInf(m.Dt, 0) {
-		return nil, fmt.Errorf("mackey-glass: dt = %g, want dt > 0", m.Dt)
-	}
-	s := m.newState(m.start(rng)[0])
-	warm := int(math.Ceil(mgTransient / s.h))
-	for i := 0; i < warm; i++ {
-		m.step(s)
-	}
-	out := make([]float64, n)
-	var k int // grid steps taken since the first sample
-	for i := range out {
-		pos := float64(i) * m.Dt / s.h
-		for float64(k) < pos {
-			m.step(s)
-			k++
-		}
-		// The sample lies in [t_{k−1}, t_k]; interpolate there.
-		if k == 0 {
-			out[i] = s.x[s.head]
-			continue
-		}
-		prev := (s.head + s.d) % (s.d + 1) // grid point before head
-		th := pos - float64(k-1)
-		h00 := (1 + 2*th) * (1 - th) * (1 - th)
-		h10 := th * (1 - th) * (1 - th)
-		h01 := th * th * (3 - 2*th)
-		h11 := th * th * (th - 1)
-		out[i] = h00*s.x[prev] + h10*s.h*s.f[prev] + h01*s.x[s.head] + h11*s.h*s.f[s.head]
-		if !(math.Abs(out[i]) < divergeBound) {
-			return nil, fmt.Errorf("mackey-glass: %w after %d samples", ErrDiverged, i)
-		}
-	}
-	return out, nil
+	return sampleDelay("mackey-glass", m, m.start(rng)[0], n, m.Dt, mgTransient)
 }
 
-// mgLyapunov returns the largest Lyapunov exponent of the delay equation by
-// following a reference and a perturbed history (Benettin's two-trajectory
-// method): the difference of the whole history buffers is rescaled to
-// d0 = 1e-8 (Euclidean norm over the buffer) every τ time units and the log
-// growth factors are averaged over span time units after the transient
-// (the generator's). The reference history is constant at x0.
+// mgLyapunov returns the largest Lyapunov exponent of the delay equation
+// (delayLyapunov) after the generator's transient; the reference history
+// is constant at x0.
 func mgLyapunov(m MackeyGlass, x0, span float64) (Spectrum, error) {
-	if err := m.check(); err != nil {
-		return Spectrum{}, err
-	}
-	ref := m.newState(x0)
-	warm := int(math.Ceil(mgTransient / ref.h))
-	for i := 0; i < warm; i++ {
-		m.step(ref)
-	}
-	per := ref.d // steps per renormalisation: one delay time
-	const d0 = 1e-8
-	pert := &mgState{x: append([]float64(nil), ref.x...), f: append([]float64(nil), ref.f...), head: ref.head, d: ref.d, h: ref.h, steps: ref.steps}
-	dn := d0 / math.Sqrt(float64(len(pert.x)))
-	for i := range pert.x {
-		pert.x[i] += dn
-	}
-	blocks := int(math.Ceil(span / (float64(per) * ref.h)))
-	var sum float64
-	for b := 0; b < blocks; b++ {
-		for i := 0; i < per; i++ {
-			m.step(ref)
-			m.step(pert)
-		}
-		var ss float64
-		for i := range ref.x {
-			dx := pert.x[i] - ref.x[i]
-			ss += dx * dx
-		}
-		dist := math.Sqrt(ss)
-		if !(dist > 0) || math.IsInf(dist, 0) || math.IsNaN(dist) {
-			return Spectrum{}, fmt.Errorf("mackey-glass: %w: perturbation lost", ErrDiverged)
-		}
-		sum += math.Log(dist / d0)
-		sc := d0 / dist
-		for i := range ref.x {
-			pert.x[i] = ref.x[i] + (pert.x[i]-ref.x[i])*sc
-			pert.f[i] = ref.f[i] + (pert.f[i]-ref.f[i])*sc
-		}
-	}
-	t := float64(blocks*per) * ref.h
-	return Spectrum{Exponents: []float64{sum / t}, Unit: "per time unit", Span: t}, nil
+	return delayLyapunov("mackey-glass", m, x0, span, mgTransient)
 }
 
 // mgLabelSpan is the span of the parameter-only label rule (Class) and
